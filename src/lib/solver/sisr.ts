@@ -1,0 +1,159 @@
+import type { Model } from './model';
+import type { Rng } from './random';
+import type { State } from './state';
+
+/**
+ * Slack Induction by String Removals (Christiaens & Vanden Berghe, Transportation Science 2020,
+ * recipe from memory): remove a few strings of consecutive jobs from routes near a random seed job,
+ * then put the jobs back one by one at their cheapest position, skipping each position with a small
+ * "blink" probability. Parameters as in the paper: c̄ = 10 average removed, L_max = 10, blink 0.01.
+ */
+export interface SisrParams {
+  avgRemoved: number;
+  maxString: number;
+  blinkRate: number;
+  splitRate: number;
+}
+
+export const DEFAULT_SISR: SisrParams = { avgRemoved: 10, maxString: 10, blinkRate: 0.01, splitRate: 0.5 };
+
+export function ruin(s: State, rng: Rng, p: SisrParams): number[] {
+  const m = s.m;
+  let total = 0, used = 0;
+  for (const r of s.routes) if (r.length) { total += r.length; used++; }
+  if (used === 0) return [];
+  const avgCard = total / used;
+  const lsMax = Math.min(p.maxString, avgCard);
+  const ksMax = (4 * p.avgRemoved) / (1 + lsMax) - 1;
+  const ks = Math.floor(rng.next() * ksMax) + 1;
+  // seed: a random assigned job
+  let seed = -1;
+  for (let tries = 0; tries < 50 && seed < 0; tries++) {
+    const j = rng.int(m.nJobs);
+    if (s.routeOf[j] >= 0) seed = j;
+  }
+  if (seed < 0) for (let j = 0; j < m.nJobs; j++) if (s.routeOf[j] >= 0) { seed = j; break; }
+  const removed: number[] = [];
+  const ruined = new Set<number>();
+  const visit = (c: number) => {
+    const f = s.routeOf[c];
+    if (f < 0 || ruined.has(f)) return;
+    const r = s.routes[f];
+    const lmax = Math.min(r.length, lsMax);
+    const l = Math.floor(rng.next() * lmax) + 1;
+    const pos = r.indexOf(c);
+    if (l >= r.length || rng.next() < p.splitRate) {
+      // string: l consecutive jobs containing c
+      const startMin = Math.max(0, pos - l + 1), startMax = Math.min(pos, r.length - l);
+      const st = startMin + rng.int(startMax - startMin + 1);
+      for (let k = st; k < st + l; k++) removed.push(r[k]);
+    } else {
+      // split string: l + mm consecutive jobs containing c, keep mm in the middle
+      let mm = 1;
+      while (l + mm < r.length && rng.next() < 0.5) mm++;
+      const len = l + mm;
+      const startMin = Math.max(0, pos - len + 1), startMax = Math.min(pos, r.length - len);
+      const st = startMin + rng.int(startMax - startMin + 1);
+      const keepAt = st + rng.int(l + 1);
+      for (let k = st; k < st + len; k++) if (k < keepAt || k >= keepAt + mm) removed.push(r[k]);
+    }
+    ruined.add(f);
+  };
+  visit(seed);
+  const nb = m.neighbours[seed];
+  for (let k = 0; k < nb.length && ruined.size < ks; k++) visit(nb[k]);
+  s.removeMany(removed);
+  return removed;
+}
+
+/**
+ * Greedy insertion with blinks, in one of the paper's orders (random, largest demand, farthest from
+ * home, closest to home). Jobs whose best insertion costs more than leaving them out stay out.
+ * `allowed` restricts the routes that may receive jobs (fleet minimisation keeps empty routes closed).
+ */
+export function recreate(s: State, rng: Rng, p: SisrParams, allowed?: Uint8Array): void {
+  const m = s.m;
+  const jobs = [...s.unassigned];
+  const order = rng.next() * 11;
+  if (order < 4) rng.shuffle(jobs);
+  else if (order < 8) { rng.shuffle(jobs); jobs.sort((a, b) => m.demand[b] - m.demand[a]); }
+  else if (order < 10) jobs.sort((a, b) => m.fromHomeTravel[0][b] - m.fromHomeTravel[0][a] || a - b);
+  else jobs.sort((a, b) => m.fromHomeTravel[0][a] - m.fromHomeTravel[0][b] || a - b);
+  const F = m.nFarriers;
+  const routeOrder = Array.from({ length: F }, (_, i) => i);
+  for (const j of jobs) {
+    let best = m.leaveOutCost[j], bf = -1, bp = -1;
+    rng.shuffle(routeOrder);
+    let openedEmpty = false;
+    for (const f of routeOrder) {
+      if (allowed && !allowed[f]) continue;
+      if (!m.eligible[f * m.nJobs + j]) continue;
+      const n = s.routes[f].length;
+      if (n === 0) {
+        // identical empty routes are interchangeable: try only one per distinct farrier type
+        if (openedEmpty && m.fleetObjective) continue;
+        openedEmpty = true;
+      }
+      for (let pos = 0; pos <= n; pos++) {
+        if (rng.next() < p.blinkRate) continue;
+        const d = s.insertionDelta(j, f, pos);
+        if (d < best) { best = d; bf = f; bp = pos; }
+      }
+    }
+    if (bf >= 0) s.insert(j, bf, bp);
+  }
+  s.recomputeCost();
+}
+
+/**
+ * Regret-2 insertion: repeatedly place the job whose best and second-best routes differ most, so
+ * that jobs with few good options are placed first. Used to build the first plan on problems of
+ * moderate size; larger ones use cheapest insertion in a fixed order.
+ */
+export function regretConstruct(s: State, rng: Rng): void {
+  const m = s.m, F = m.nFarriers;
+  const bestIn = new Float64Array(m.nJobs * F);
+  const bestPos = new Int32Array(m.nJobs * F);
+  const evalRouteFor = (j: number, f: number) => {
+    let b = Infinity, bp = -1;
+    const n = s.routes[f].length;
+    for (let p = 0; p <= n; p++) {
+      const d = s.insertionDelta(j, f, p);
+      if (d < b) { b = d; bp = p; }
+    }
+    bestIn[j * F + f] = b;
+    bestPos[j * F + f] = bp;
+  };
+  const open = [...s.unassigned];
+  for (const j of open) for (let f = 0; f < F; f++) evalRouteFor(j, f);
+  const left = new Set(open);
+  while (left.size) {
+    let pick = -1, pickF = -1, pickScore = -Infinity;
+    for (const j of left) {
+      let b1 = Infinity, b2 = Infinity, f1 = -1;
+      for (let f = 0; f < F; f++) {
+        const c = bestIn[j * F + f];
+        if (c < b1) { b2 = b1; b1 = c; f1 = f; } else if (c < b2) b2 = c;
+      }
+      if (f1 < 0 || b1 >= m.leaveOutCost[j]) continue;
+      const regret = (b2 === Infinity ? 1e15 : b2 - b1) + m.leaveOutCost[j] * 1e-6;
+      const score = regret - b1 * 1e-9 + rng.next() * 1e-12;
+      if (score > pickScore) { pickScore = score; pick = j; pickF = f1; }
+    }
+    if (pick < 0) break;
+    s.insert(pick, pickF, bestPos[pick * F + pickF]);
+    left.delete(pick);
+    for (const j of left) evalRouteFor(j, pickF);
+  }
+  s.recomputeCost();
+}
+
+/** Cheapest insertion in a fixed order (farthest from home first); linear in routes per job. */
+export function greedyConstruct(s: State, rng: Rng): void {
+  recreate(s, rng, { ...DEFAULT_SISR, blinkRate: 0 });
+}
+
+export function annealTemperature(m: Model, progress: number): number {
+  const t0 = 1.0 * m.typicalArcCost, tf = 0.01 * m.typicalArcCost;
+  return t0 * Math.pow(tf / t0, Math.min(1, progress));
+}

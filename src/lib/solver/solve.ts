@@ -1,0 +1,254 @@
+import { buildModel, type Model } from './model';
+import { impossibleReason, type UnplannedReason } from './diagnose';
+import { localSearch } from './moves';
+import { createRng, type Rng } from './random';
+import { evalRoute } from './route-eval';
+import { annealTemperature, DEFAULT_SISR, greedyConstruct, recreate, regretConstruct, ruin } from './sisr';
+import { State } from './state';
+import type { Problem } from './problem';
+
+/** When to stop. At least one limit applies; with none given the engine stops after 10 seconds. */
+export interface StopRule {
+  maxIterations?: number;
+  maxSeconds?: number;
+  /** Stop after this many iterations without a new best plan. */
+  noImprovementIterations?: number;
+}
+
+export interface Progress {
+  iterations: number;
+  seconds: number;
+  bestCost: number;
+  unplanned: number;
+  farriersUsed: number;
+  phase: 'construct' | 'fleet' | 'improve';
+}
+
+export interface SolveOptions {
+  seed: number;
+  stop: StopRule;
+  onProgress?: (p: Progress) => void;
+  /** Polled between iterations; returning true ends the search with the best plan so far (used for cancellation). */
+  shouldStop?: () => boolean;
+  /** Share of the budget spent removing whole routes under the fleet-then-distance objective (default 0.5). */
+  fleetShare?: number;
+}
+
+export interface PlannedJob { jobId: string; startSec: number; endSec: number }
+export interface PlannedStop {
+  barnId: string;
+  location: number;
+  /** Arrival at the barn. */
+  arrivalSec: number;
+  /** Set-up begins (after any wait for the barn or the owner). */
+  startSec: number;
+  departureSec: number;
+  jobIds: string[];
+  jobs: PlannedJob[];
+}
+export interface PlannedRoute {
+  farrierId: string;
+  stops: PlannedStop[];
+  breakStartSec?: number;
+  startSec: number;
+  endSec: number;
+  driveSec: number;
+  distanceM: number;
+  workSec: number;
+  overtimeSec: number;
+  costCents: number;
+}
+export interface SolveResult {
+  /** One route per farrier, in the problem's order; an idle farrier has no stops and zero cost. */
+  routes: PlannedRoute[];
+  unplanned: { jobId: string; reason: UnplannedReason }[];
+  /** Route costs plus penalties of left-out optional jobs, in cents (mandatory jobs left out are listed, not priced). */
+  cost: number;
+  statistics: {
+    iterations: number;
+    seconds: number;
+    firstFeasibleSeconds: number;
+    improvements: number;
+    farriersUsed: number;
+    stopReason: 'iterations' | 'seconds' | 'no_improvement' | 'cancelled' | 'nothing_to_do';
+    seed: number;
+  };
+}
+
+/** A plain-sequence plan: the job indices each farrier does, in order. */
+export type Sequences = number[][];
+
+const now = () => performance.now() / 1000;
+
+/**
+ * Builds a day plan: regret insertion, a first local search, then string-removal ruin and blink
+ * recreate under simulated annealing (restarted from the best plan in fixed-length cycles so that the
+ * run does not depend on the clock), with local search on every new best plan. Under the
+ * fleet-then-distance objective a route-removal phase first tries to empty whole routes.
+ * Deterministic for a seed and an iteration limit; a seconds limit only decides when to stop.
+ */
+export function solve(problem: Problem, opts: SolveOptions): SolveResult {
+  const t0 = now();
+  const m = buildModel(problem);
+  const rng = createRng(opts.seed);
+  const stop = opts.stop ?? {};
+  const maxIt = stop.maxIterations ?? Infinity;
+  const maxSec = stop.maxSeconds ?? (stop.maxIterations === undefined && stop.noImprovementIterations === undefined ? 10 : Infinity);
+  const noImp = stop.noImprovementIterations ?? Infinity;
+  let iterations = 0, improvements = 0;
+  let stopReason: SolveResult['statistics']['stopReason'] = 'iterations';
+  let lastProgress = -1;
+  const progress = (phase: Progress['phase'], best: State, force = false) => {
+    if (!opts.onProgress) return;
+    const t = now() - t0;
+    if (!force && t - lastProgress < 0.1) return;
+    lastProgress = t;
+    opts.onProgress({ iterations, seconds: t, bestCost: reportedCost(m, best), unplanned: best.unassigned.size, farriersUsed: best.usedRoutes(), phase });
+  };
+  let timeChecks = 0;
+  const outOfTime = (limitSec = maxSec) => {
+    if (opts.shouldStop && (timeChecks & 7) === 0 && opts.shouldStop()) { stopReason = 'cancelled'; return true; }
+    if (limitSec === Infinity) { timeChecks++; return false; }
+    if ((timeChecks++ & 7) !== 0) return false;
+    if (now() - t0 >= limitSec) { stopReason = 'seconds'; return true; }
+    return false;
+  };
+
+  let best = new State(m);
+  if (m.nJobs <= 400) regretConstruct(best, rng); else greedyConstruct(best, rng);
+  const firstFeasibleSeconds = now() - t0;
+  localSearch(best, rng);
+  progress('construct', best, true);
+
+  if (m.nJobs === 0 || m.nFarriers === 0) stopReason = 'nothing_to_do';
+  else {
+    if (m.fleetObjective) {
+      const share = opts.fleetShare ?? 0.5;
+      const r = fleetPhase(m, best, rng, Math.min(maxIt, Math.floor(maxIt * share)), maxSec === Infinity ? Infinity : maxSec * share, noImp, outOfTime, () => progress('fleet', best), t0);
+      best = r.best;
+      iterations += r.iterations;
+    }
+    let cur = best.clone();
+    const cycle = Math.max(2000, 300 * m.nJobs);
+    let sinceBest = 0;
+    const eps = 1e-9 * Math.max(1, m.typicalArcCost);
+    while ((stopReason as string) !== 'cancelled') {
+      if (iterations >= maxIt) { stopReason = 'iterations'; break; }
+      if (sinceBest >= noImp) { stopReason = 'no_improvement'; break; }
+      if (outOfTime()) break;
+      const phasePos = iterations % cycle;
+      if (phasePos === 0 && iterations > 0) cur = best.clone();
+      const T = annealTemperature(m, phasePos / cycle);
+      const cand = cur.clone();
+      ruin(cand, rng, DEFAULT_SISR);
+      recreate(cand, rng, DEFAULT_SISR);
+      iterations++;
+      sinceBest++;
+      if (cand.cost < cur.cost - T * Math.log(1 - rng.next() + 1e-300)) {
+        cur = cand;
+        if (cand.cost < best.cost - eps) {
+          const polished = cand.clone();
+          localSearch(polished, rng);
+          best = polished;
+          if (polished.cost < cur.cost) cur = polished.clone();
+          improvements++;
+          sinceBest = 0;
+        }
+      }
+      progress('improve', best);
+    }
+  }
+  progress('improve', best, true);
+  return buildResult(m, best, {
+    iterations, seconds: now() - t0, firstFeasibleSeconds, improvements, farriersUsed: best.usedRoutes(), stopReason, seed: opts.seed,
+  });
+}
+
+function fleetPhase(
+  m: Model, start: State, rng: Rng, maxIt: number, maxSec: number, noImp: number,
+  outOfTime: (limit?: number) => boolean, progress: () => void, _t0: number,
+): { best: State; iterations: number } {
+  let best = start;
+  let iterations = 0;
+  const absence = new Float64Array(m.nJobs);
+  let totalDemand = 0;
+  for (let j = 0; j < m.nJobs; j++) totalDemand += m.demand[j];
+  const cap = m.capacity[0];
+  const lb = Number.isFinite(cap) && cap > 0 ? Math.ceil(totalDemand / cap) : 1;
+  const hopeless = new Set<number>();
+  for (let j = 0; j < m.nJobs; j++) if (best.routeOf[j] < 0) hopeless.add(j);
+  const openCount = (s: State) => { let c = 0; for (const j of s.unassigned) if (!hopeless.has(j)) c++; return c; };
+  const absSum = (s: State) => { let a = 0; for (const j of s.unassigned) if (!hopeless.has(j)) a += absence[j]; return a; };
+  const perAttempt = noImp === Infinity ? Infinity : noImp;
+  while (best.usedRoutes() > lb) {
+    // remove the route with the fewest jobs; its jobs must fit into the others
+    let fMin = -1;
+    for (let f = 0; f < m.nFarriers; f++) if (best.routes[f].length && (fMin < 0 || best.routes[f].length < best.routes[fMin].length)) fMin = f;
+    let cur = best.clone();
+    cur.removeMany(cur.routes[fMin].slice());
+    const allowed = new Uint8Array(m.nFarriers);
+    for (let f = 0; f < m.nFarriers; f++) if (cur.routes[f].length) allowed[f] = 1;
+    let found = false, since = 0;
+    while (iterations < maxIt && since < perAttempt && !outOfTime(maxSec)) {
+      const cand = cur.clone();
+      ruin(cand, rng, DEFAULT_SISR);
+      recreate(cand, rng, DEFAULT_SISR, allowed);
+      iterations++; since++;
+      for (const j of cand.unassigned) if (!hopeless.has(j)) absence[j]++;
+      const oc = openCount(cand), ocur = openCount(cur);
+      if (oc < ocur || (oc === ocur ? absSum(cand) <= absSum(cur) : absSum(cand) < absSum(cur))) {
+        if (oc < ocur) since = 0;
+        cur = cand;
+      }
+      if (openCount(cur) === 0) { found = true; break; }
+      progress();
+    }
+    if (!found) break;
+    localSearch(cur, rng);
+    best = cur;
+  }
+  return { best, iterations };
+}
+
+function reportedCost(m: Model, s: State): number {
+  let c = 0;
+  for (const e of s.evals) c += e.cost;
+  for (const j of s.unassigned) if (!m.mandatory[j]) c += m.leaveOutCost[j];
+  return c;
+}
+
+/** Turns a search state into the public result, with stop times re-derived by the exact evaluator. */
+export function buildResult(m: Model, s: State, statistics: SolveResult['statistics']): SolveResult {
+  const p = m.problem;
+  const routes: PlannedRoute[] = s.routes.map((seq, f) => routeDetails(m, f, seq));
+  const unplanned = [...s.unassigned].sort((a, b) => a - b).map((j) => ({ jobId: p.jobs[j].id, reason: impossibleReason(m, j) ?? ('no_room' as const) }));
+  return { routes, unplanned, cost: reportedCost(m, s), statistics };
+}
+
+/** Public timing of one route (stops grouped from consecutive jobs at one barn). */
+export function routeDetails(m: Model, f: number, seq: number[]): PlannedRoute {
+  const p = m.problem, far = p.farriers[f];
+  const e = evalRoute(m, f, seq, true);
+  const stops: PlannedStop[] = [];
+  if (!seq.length) return { farrierId: far.id, stops, startSec: far.shiftStartSec, endSec: far.shiftStartSec, driveSec: 0, distanceM: 0, workSec: 0, overtimeSec: 0, costCents: 0 };
+  let prevDeparture = e.startSec;
+  for (let k = 0; k < seq.length; k++) {
+    const j = seq[k], job = p.jobs[j], barn = p.barns[m.jobBarn[j]];
+    const start = e.jobStart![k];
+    const newStop = k === 0 || m.jobBarn[seq[k - 1]] !== m.jobBarn[j];
+    if (newStop) {
+      let leave = prevDeparture;
+      if (e.breakGap === k && k > 0) leave = e.breakStartSec! + far.breakSec;
+      const travel = k === 0 ? m.fromHomeTravel[f][j] : m.travelSec[seq[k - 1] * m.nJobs + j];
+      stops.push({ barnId: barn.id, location: barn.location, arrivalSec: leave + travel, startSec: start - barn.setupSec, departureSec: start + job.durationSec, jobIds: [], jobs: [] });
+    }
+    const st = stops[stops.length - 1];
+    st.jobIds.push(job.id);
+    st.jobs.push({ jobId: job.id, startSec: start, endSec: start + job.durationSec });
+    st.departureSec = start + job.durationSec;
+    prevDeparture = st.departureSec;
+  }
+  const r: PlannedRoute = { farrierId: far.id, stops, startSec: e.startSec, endSec: e.endSec, driveSec: e.driveSec, distanceM: e.distanceM, workSec: e.workSec, overtimeSec: e.overtimeSec, costCents: e.cost };
+  if (e.breakStartSec !== undefined) r.breakStartSec = e.breakStartSec;
+  return r;
+}
