@@ -10,6 +10,7 @@ import tailwind from '@astrojs/tailwind';
  */
 export default defineConfig({
   output: 'server',
+  outDir: process.env.ASTRO_OUT_DIR ?? './dist',
   adapter: node({ mode: 'standalone' }),
   integrations: [react(), tailwind({ applyBaseStyles: false })],
   security: {

@@ -5,6 +5,7 @@
  *
  *   npm run region:generate            # writes tiles/source/*.geojson and tiles/region.json
  *   npm run region:generate -- --seed 7 --out /tmp/region
+ *   npm run region:generate -- --glyphs-only   # re-renders the label glyphs under tiles/glyphs/
  *
  * Roads carry OpenStreetMap-style tags (highway, name, ref, oneway, maxspeed) so that the demo and a
  * practice's own OpenStreetMap extract go through the same road graph and tile code. Intersections are
@@ -15,6 +16,20 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 
 type XY = [number, number];
+
+// Label glyphs: `--glyphs` renders them as well as the region, `--glyphs-only` renders just them.
+if (process.argv.includes('--glyphs') || process.argv.includes('--glyphs-only')) {
+  const { renderGlyphFiles } = await import('../src/lib/map/glyph-render');
+  const glyphRoot = path.resolve(argValue('--out') ?? 'tiles', 'glyphs');
+  let bytes = 0;
+  for (const [name, data] of renderGlyphFiles()) {
+    mkdirSync(path.dirname(path.join(glyphRoot, name)), { recursive: true });
+    writeFileSync(path.join(glyphRoot, name), data);
+    bytes += data.length;
+  }
+  console.log(`glyphs: ${Math.round(bytes / 1024)} KiB → ${glyphRoot}`);
+  if (process.argv.includes('--glyphs-only')) process.exit(0);
+}
 
 const DEFAULT_SEED = 20261201;
 const LAT0 = 38.2;

@@ -154,6 +154,8 @@ function simulate(p: Problem, r: { farrierId: string; jobIds: string[] }, fIdx: 
   const end = t + p.durationSec[loc][far.endLocation];
   const first = stops[0];
   const start = breakAtHome ? breakStart! + far.breakSec : first.startSec - p.durationSec[far.startLocation][first.location];
+  // the farrier leaves home as late as the first stop allows, so arrives just as set-up begins
+  if (!breakAtHome) first.arrivalSec = first.startSec;
   const workSec = end - start - (hasBreak && !breakAtHome ? far.breakSec : 0);
   const overtime = Math.max(0, workSec - far.normalWorkSec);
   if (end > far.shiftEndSec + far.maxOvertimeSec) v('shift_end_exceeded', `${far.id} gets home at ${fmt(end)}, after the shift end plus allowed overtime (${fmt(far.shiftEndSec + far.maxOvertimeSec)})`);
