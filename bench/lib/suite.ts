@@ -1,0 +1,82 @@
+import { readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import os from 'node:os';
+import { checkSolution } from '../../src/lib/solver/checker';
+import { solve } from '../../src/lib/solver/solve';
+import { farrierDay } from './farrier-day';
+import { runSolomon, runTsplib } from './runs';
+
+function csv(path: string): Record<string, string>[] {
+  const [head, ...rows] = readFileSync(path, 'utf8').trim().split(/\r?\n/);
+  const cols = head.split(',');
+  return rows.map((r) => {
+    const f = r.match(/("([^"]*)"|[^,]*)(,|$)/g)!.map((x) => x.replace(/,$/, '').replace(/^"|"$/g, ''));
+    return Object.fromEntries(cols.map((c, i) => [c, f[i]]));
+  });
+}
+
+const pad = (s: string | number, n: number) => String(s).padEnd(n);
+const padL = (s: string | number, n: number) => String(s).padStart(n);
+const out = (s: string) => process.stdout.write(s + '\n');
+
+/**
+ * Runs every published instance with a fixed budget, then the invented farrier day (3 s against
+ * 60 s) and the 1,000-job scale run. Every result is re-checked; figures are printed, never asserted.
+ */
+export async function runSuite(o: { secondsTsp: number; secondsVrptw: number; seed: number; root: string }) {
+  out(`Roundsmith plan engine benchmark — seed ${o.seed}, TSP ${o.secondsTsp} s, VRPTW ${o.secondsVrptw} s each; ${os.cpus().length} CPUs, load average at start ${os.loadavg().map((x) => x.toFixed(2)).join(' ')}`);
+  out('');
+  const tspDir = join(o.root, 'tsplib');
+  const optimal = new Map(csv(join(tspDir, 'optimal.csv')).map((r) => [r.instance, Number(r.optimal)]));
+  out(`${pad('TSPLIB', 12)}${padL('optimum', 9)}${padL('ours', 9)}${padL('gap %', 8)}${padL('seconds', 9)}  check`);
+  const tspGaps: number[] = [];
+  for (const f of readdirSync(tspDir).filter((x) => x.endsWith('.tsp')).sort()) {
+    const r = runTsplib(join(tspDir, f), o.secondsTsp, o.seed);
+    const opt = optimal.get(r.instance);
+    const gap = opt ? ((r.length - opt) / opt) * 100 : NaN;
+    if (opt) tspGaps.push(gap);
+    out(`${pad(r.instance, 12)}${padL(opt ?? '-', 9)}${padL(r.length, 9)}${padL(gap.toFixed(2), 8)}${padL(r.seconds.toFixed(1), 9)}  ${r.check.feasible ? 'ok' : 'FAIL ' + r.check.errors[0]}`);
+  }
+  out(`${pad('average', 30)}${padL((tspGaps.reduce((a, b) => a + b, 0) / tspGaps.length).toFixed(2), 8)}`);
+  out('');
+
+  const solDir = join(o.root, 'solomon');
+  const bks = new Map(csv(join(solDir, 'bks.csv')).map((r) => [r.instance, { vehicles: Number(r.vehicles), distance: Number(r.distance) }]));
+  out(`${pad('Solomon', 9)}${padL('BKS veh', 8)}${padL('BKS dist', 10)}${padL('our veh', 8)}${padL('our dist', 10)}${padL('gap %', 8)}${padL('seconds', 9)}  check`);
+  const gaps: number[] = [];
+  let withinOne = 0, atBks = 0, count = 0;
+  for (const f of readdirSync(solDir).filter((x) => x.endsWith('.txt')).sort()) {
+    const r = runSolomon(join(solDir, f), o.secondsVrptw, o.seed);
+    const key = f.replace(/\.txt$/, '').toLowerCase();
+    const b = bks.get(key);
+    const gap = b ? ((r.distance - b.distance) / b.distance) * 100 : NaN;
+    if (b) { gaps.push(gap); count++; if (r.vehicles <= b.vehicles + 1) withinOne++; if (r.vehicles <= b.vehicles) atBks++; }
+    out(`${pad(key, 9)}${padL(b?.vehicles ?? '-', 8)}${padL(b?.distance.toFixed(2) ?? '-', 10)}${padL(r.vehicles, 8)}${padL(r.distance.toFixed(2), 10)}${padL(gap.toFixed(2), 8)}${padL(r.seconds.toFixed(1), 9)}  ${r.check.feasible ? 'ok' : 'FAIL ' + r.check.errors[0]}`);
+  }
+  out(`average distance gap ${(gaps.reduce((a, b) => a + b, 0) / gaps.length).toFixed(2)} %; vehicles <= BKS+1 on ${withinOne}/${count}; = BKS on ${atBks}/${count} (gap compares distances even where vehicle counts differ)`);
+  out('');
+
+  const day = farrierDay({ seed: o.seed, farriers: 6, jobs: 60, barns: 40, sideM: 40000 });
+  const describe = (label: string, seconds: number) => {
+    const r = solve(day, { seed: o.seed, stop: { maxSeconds: seconds } });
+    const c = checkSolution(day, r, { complete: true, compareTimes: true });
+    const planned = r.routes.reduce((a, x) => a + x.stops.reduce((b, s) => b + s.jobIds.length, 0), 0);
+    out(`${pad(label, 22)} cost ${(r.cost / 100).toFixed(2)} (checker ${(c.costs.totalCents / 100).toFixed(2)}), first plan ${(r.statistics.firstFeasibleSeconds * 1000).toFixed(0)} ms, ${planned} jobs planned, ${r.unplanned.length} unplanned, ${r.statistics.iterations} iterations, ${r.statistics.seconds.toFixed(1)} s, ${c.feasible ? 'checked feasible' : 'FAIL ' + c.violations[0]?.message}`);
+    return r;
+  };
+  out('Farrier day (invented: 6 farriers, 60 jobs at 40 barns, mixed work, pins and owner windows)');
+  const r3 = describe('3-second budget', 3);
+  const r60 = describe('60-second budget', 60);
+  out(`3-s result is ${(((r3.cost - r60.cost) / r60.cost) * 100).toFixed(2)} % above the 60-s result`);
+  out('');
+
+  out('Scale (invented: 50 farriers, 1,000 jobs at 600 barns), 30-second budget');
+  const big = farrierDay({ seed: o.seed, farriers: 50, jobs: 1000, barns: 600, sideM: 150000 });
+  let peak = process.memoryUsage().rss;
+  const rb = solve(big, { seed: o.seed, stop: { maxSeconds: 30 }, onProgress: () => { peak = Math.max(peak, process.memoryUsage().rss); } });
+  peak = Math.max(peak, process.memoryUsage().rss);
+  const cb = checkSolution(big, rb, { complete: true });
+  const planned = rb.routes.reduce((a, x) => a + x.stops.reduce((b, s) => b + s.jobIds.length, 0), 0);
+  out(`first feasible plan ${rb.statistics.firstFeasibleSeconds.toFixed(2)} s; after ${rb.statistics.seconds.toFixed(1)} s: ${planned} jobs planned, ${rb.unplanned.length} unplanned, cost ${(rb.cost / 100).toFixed(2)}, ${rb.statistics.iterations} iterations; peak RSS ${(peak / 1048576).toFixed(0)} MB (process maxRSS ${(process.resourceUsage().maxRSS / 1024).toFixed(0)} MB); ${cb.feasible ? 'checked feasible' : 'FAIL ' + cb.violations[0]?.message}`);
+  out(`load average at end ${os.loadavg().map((x) => x.toFixed(2)).join(' ')}`);
+}
