@@ -1,0 +1,176 @@
+/**
+ * The map island (use with client:only="react"): Roundsmith's own base map from /tiles/style.json with
+ * barns, farrier homes and routes as GeoJSON sources and layers. Clicks on barns and homes are picked
+ * through interactiveLayerIds and open a popup; fitBounds goes through a MapRef.
+ */
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import Map, { Layer, NavigationControl, Popup, ScaleControl, Source, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
+import 'maplibre-gl/dist/maplibre-gl.css';
+import {
+  barnLabelsLayer,
+  barnsCollection,
+  barnsLayer,
+  boundsOf,
+  DUE_STATES,
+  homesCollection,
+  homesLayer,
+  INTERACTIVE_LAYER_IDS,
+  LAYER_IDS,
+  routesCasingLayer,
+  routesCollection,
+  routesLayer,
+  type DueState,
+  type MapBarn,
+  type MapHome,
+  type MapRoute,
+} from './map-layers';
+
+export interface MapViewProps {
+  barns: MapBarn[];
+  homes: MapHome[];
+  routes?: MapRoute[];
+  selectedBarnId?: MapBarn['id'] | null;
+  onBarnClick?: (barn: MapBarn) => void;
+  /** What to frame: 'all' (default) barns, homes and routes; 'routes'; or explicit [w, s, e, n]. */
+  fitTo?: 'all' | 'routes' | [number, number, number, number];
+  /** Scale bar units, the practice's. */
+  units?: 'miles' | 'km';
+  /** CSS height of the map; the width follows the container. */
+  height?: string;
+}
+
+type Picked = { kind: 'barn'; barn: MapBarn } | { kind: 'home'; home: MapHome };
+
+export default function MapView({ barns, homes, routes = [], selectedBarnId, onBarnClick, fitTo = 'all', units = 'miles', height = '70vh' }: MapViewProps) {
+  const mapRef = useRef<MapRef>(null);
+  const [picked, setPicked] = useState<Picked | null>(null);
+  const [loaded, setLoaded] = useState(false);
+  const [roadLabels, setRoadLabels] = useState(0);
+  const [cursor, setCursor] = useState<string>('');
+  const styleUrl = `${window.location.origin}/tiles/style.json`;
+
+  const barnData = useMemo(() => barnsCollection(barns, selectedBarnId), [barns, selectedBarnId]);
+  const homeData = useMemo(() => homesCollection(homes), [homes]);
+  const routeData = useMemo(() => routesCollection(routes), [routes]);
+
+  const bounds = useMemo(() => {
+    if (Array.isArray(fitTo)) return fitTo;
+    const routePoints = routes.flatMap((r) => r.coordinates);
+    if (fitTo === 'routes' && routePoints.length > 0) return boundsOf(routePoints);
+    return boundsOf([...barns.map((b): [number, number] => [b.lon, b.lat]), ...homes.map((h): [number, number] => [h.lon, h.lat]), ...routePoints]);
+  }, [fitTo, barns, homes, routes]);
+
+  useEffect(() => {
+    if (!loaded || !bounds) return;
+    mapRef.current?.fitBounds(
+      [
+        [bounds[0], bounds[1]],
+        [bounds[2], bounds[3]],
+      ],
+      { padding: 48, duration: 0, maxZoom: 15 },
+    );
+  }, [loaded, bounds]);
+
+  const onClick = useCallback(
+    (event: MapLayerMouseEvent) => {
+      const feature = event.features?.[0];
+      if (!feature) {
+        setPicked(null);
+        return;
+      }
+      const id = String(feature.properties?.id);
+      if (feature.layer.id === LAYER_IDS.barns) {
+        const barn = barns.find((b) => String(b.id) === id);
+        if (barn) {
+          setPicked({ kind: 'barn', barn });
+          onBarnClick?.(barn);
+        }
+      } else if (feature.layer.id === LAYER_IDS.homes) {
+        const home = homes.find((h) => String(h.id) === id);
+        if (home) setPicked({ kind: 'home', home });
+      }
+    },
+    [barns, homes, onBarnClick],
+  );
+
+  const onIdle = useCallback(() => {
+    // Exposed on the container for people and tests alike: how many road names are on screen.
+    const map = mapRef.current;
+    if (map) setRoadLabels(map.queryRenderedFeatures(undefined, { layers: ['road-label'] }).length);
+  }, []);
+
+  const legendStates = Object.keys(DUE_STATES) as DueState[];
+
+  return (
+    <div className="relative overflow-hidden rounded-lg border border-slateblue-200" style={{ height }} data-map-ready={loaded ? 'true' : 'false'} data-road-labels={roadLabels}>
+      <Map
+        ref={mapRef}
+        mapStyle={styleUrl}
+        initialViewState={{ longitude: -84.6, latitude: 38.2, zoom: 10 }}
+        minZoom={8}
+        maxZoom={17}
+        interactiveLayerIds={INTERACTIVE_LAYER_IDS}
+        onClick={onClick}
+        onLoad={() => setLoaded(true)}
+        onIdle={onIdle}
+        onMouseEnter={() => setCursor('pointer')}
+        onMouseLeave={() => setCursor('')}
+        cursor={cursor}
+        attributionControl={{ compact: false }}
+        style={{ width: '100%', height: '100%' }}
+      >
+        <NavigationControl position="top-right" showCompass={false} />
+        <ScaleControl position="bottom-left" unit={units === 'miles' ? 'imperial' : 'metric'} />
+        <Source id="rs-routes" type="geojson" data={routeData}>
+          <Layer {...routesCasingLayer} />
+          <Layer {...routesLayer} />
+        </Source>
+        <Source id="rs-homes" type="geojson" data={homeData}>
+          <Layer {...homesLayer} />
+        </Source>
+        <Source id="rs-barns" type="geojson" data={barnData}>
+          <Layer {...barnsLayer} />
+          <Layer {...barnLabelsLayer} />
+        </Source>
+        {picked?.kind === 'barn' && (
+          <Popup longitude={picked.barn.lon} latitude={picked.barn.lat} offset={12} onClose={() => setPicked(null)} closeOnClick={false} maxWidth="260px">
+            <div className="text-sm text-slateblue-900">
+              <p className="font-semibold">{picked.barn.name}</p>
+              {picked.barn.address && <p className="text-xs text-slateblue-600">{picked.barn.address}</p>}
+              <p className="mt-1">
+                {picked.barn.horses} {picked.barn.horses === 1 ? 'horse' : 'horses'} ·{' '}
+                <span style={{ color: DUE_STATES[picked.barn.dueState].colour }} className="font-semibold">
+                  {DUE_STATES[picked.barn.dueState].label}
+                </span>
+              </p>
+            </div>
+          </Popup>
+        )}
+        {picked?.kind === 'home' && (
+          <Popup longitude={picked.home.lon} latitude={picked.home.lat} offset={12} onClose={() => setPicked(null)} closeOnClick={false}>
+            <div className="text-sm text-slateblue-900">
+              <p className="font-semibold">{picked.home.name}</p>
+              <p className="text-xs text-slateblue-600">Farrier's home base</p>
+            </div>
+          </Popup>
+        )}
+      </Map>
+      <div className="pointer-events-none absolute left-2 top-2 rounded-md bg-white/90 px-3 py-2 text-xs text-slateblue-800 shadow">
+        <ul className="space-y-1">
+          {legendStates.map((s) => (
+            <li key={s} className="flex items-center gap-2">
+              <span className="inline-block h-3 w-3 rounded-full border border-white" style={{ background: DUE_STATES[s].colour }} />
+              {DUE_STATES[s].label}
+            </li>
+          ))}
+          {homes.length > 0 && (
+            <li className="flex items-center gap-2">
+              <span className="inline-block h-3 w-3 rounded-full border-[3px] border-slateblue-600 bg-white" />
+              Farrier home
+            </li>
+          )}
+        </ul>
+      </div>
+    </div>
+  );
+}
