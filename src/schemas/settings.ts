@@ -35,6 +35,7 @@ export const settingsSchema = z
   })
   .partial()
   .superRefine((s, ctx) => {
+    if (Object.keys(s).length === 0) ctx.addIssue({ code: 'custom', path: [], message: 'Give at least one setting to change' });
     if ((s.overtimeDailyMinutes == null) !== (s.overtimeDailyMultiplier == null) && (s.overtimeDailyMinutes !== undefined || s.overtimeDailyMultiplier !== undefined)) {
       ctx.addIssue({ code: 'custom', path: ['overtimeDailyMultiplier'], message: 'Give both the daily threshold and its multiplier, or neither' });
     }

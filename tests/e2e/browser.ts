@@ -23,7 +23,7 @@ export async function launch(options: { viewport?: { width: number; height: numb
     args: [
       '--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run',
       '--disable-background-networking', '--disable-component-update', '--disable-sync',
-      '--enable-unsafe-swiftshader', '--proxy-server=http://127.0.0.1:9', '--proxy-bypass-list=<-loopback>',
+      '--enable-unsafe-swiftshader', '--proxy-server=http://127.0.0.1:9',
     ],
   });
   const page = context.pages()[0] ?? (await context.newPage());

@@ -69,7 +69,7 @@ export function parseWith<T>(schema: ZodType<T>, value: unknown, what = 'request
 export async function readJson<T>(request: Request, schema: ZodType<T>): Promise<T> {
   const type = request.headers.get('content-type') ?? '';
   if (!type.includes('application/json')) {
-    throw new HttpError(415, 'unsupported_media_type', 'Send the body as application/json');
+    throw badRequest('Send the body as application/json');
   }
   let body: unknown;
   try {
