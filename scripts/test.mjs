@@ -25,17 +25,21 @@ process.on('SIGINT', () => {
   process.exit(130);
 });
 
+// TEST_RUN_ID lets several runs share one checkout (each with its own database and build folder).
+const runId = (process.env.TEST_RUN_ID ?? '').replace(/[^a-z0-9_]/gi, '');
+const testDatabase = runId ? `roundsmith_test_${runId}` : 'roundsmith_test';
+
 try {
-  database.ensureDatabase('roundsmith_test');
-  const testUrl = withDatabase(database.url, 'roundsmith_test').toString();
-  step('Preparing roundsmith_test (migrations and the demo practice)…');
+  database.ensureDatabase(testDatabase);
+  const testUrl = withDatabase(database.url, testDatabase).toString();
+  step(`Preparing ${testDatabase} (migrations and the demo practice)…`);
   runTs('scripts/prepare-db.ts', ['--reseed'], { DATABASE_URL: testUrl });
 
   const fakes = startChild(process.execPath, ['--import', 'tsx', 'scripts/fakes.ts'], {}, 'fakes');
   children.push(fakes);
   const [, smtpPort, fakeHttpPort] = await waitForOutput(fakes, /fakes ready smtp=(\d+) http=(\d+)/);
-  const port = String(await freePort(4400));
-  const outDir = path.join(root, '.data', 'test-dist');
+  const port = String(await freePort(4400 + Math.floor(Math.random() * 400)));
+  const outDir = path.join(root, '.data', runId ? `test-dist-${runId}` : 'test-dist');
   const env = {
     DATABASE_URL: testUrl,
     SMTP_URL: `smtp://127.0.0.1:${smtpPort}`,

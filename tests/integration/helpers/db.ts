@@ -30,7 +30,8 @@ export function appDatabase(): Knex {
  */
 export async function scratchDatabase(name: string): Promise<{ knex: Knex; drop: () => Promise<void> }> {
   const worker = process.env.VITEST_POOL_ID ?? '0';
-  const dbName = `roundsmith_test_${name}_${worker}`;
+  const run = (process.env.TEST_RUN_ID ?? '').replace(/[^a-z0-9_]/gi, '');
+  const dbName = `roundsmith_test_${run ? `${run}_` : ''}${name}_${worker}`;
   const admin = appDatabase();
   await admin.raw('DROP DATABASE IF EXISTS ??', [dbName]);
   await admin.raw('CREATE DATABASE ?? CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci', [dbName]);
