@@ -29,8 +29,8 @@ const p = createProblem({
 });
 
 describe('evaluateRoutes after a dispatcher moves jobs', () => {
-  it('re-times a valid edit without violations (trim at 08:30 + 10 min set-up = 08:40 work start, inside 09:00–10:00? no: waits to 09:10)', () => {
-    // f1: home 08:00 → b2 (30 min): set-up may start at 09:00 → work 09:10–09:35; → b1 (15 min) 09:50, set-up to 10:00, ...
+  it('re-times a valid edit without violations, with the hand-computed times', () => {
+    // f2: home → b2 takes 30 min; set-up may start when the barn opens at 09:00, work 09:10–09:35.
     const r = evaluateRoutes(p, [{ farrierId: 'f2', jobIds: ['trim'] }, { farrierId: 'f1', jobIds: ['mine', 'hot', 'bar'] }]);
     expect(r.violations).toEqual([]);
     const trim = r.routes[0].stops[0];
@@ -41,8 +41,9 @@ describe('evaluateRoutes after a dispatcher moves jobs', () => {
 
   it('names each broken rule with a code and a plain message instead of fixing it', () => {
     const r = evaluateRoutes(p, [
-      { farrierId: 'f2', jobIds: ['hot', 'bar', 'mine'] },
-      { farrierId: 'f1', jobIds: ['hot', 'trim'] },
+      // f2 at b1 08:30–11:25 (hot 1 h, bar 1.5 h, mine 25 min), then b2 at 11:40: that barn closed at 10:00
+      { farrierId: 'f2', jobIds: ['hot', 'bar', 'mine', 'trim'] },
+      { farrierId: 'f1', jobIds: ['hot'] },
     ]);
     const codes = r.violations.map((v) => v.code);
     expect(codes).toEqual(expect.arrayContaining(['no_forge', 'not_qualified', 'pinned_elsewhere', 'job_repeated', 'window_missed']));
@@ -54,8 +55,8 @@ describe('evaluateRoutes after a dispatcher moves jobs', () => {
 
   it('reports a pin position, an unknown farrier and a day that runs past the shift', () => {
     const r = evaluateRoutes(p, [
-      // 3 × the long jobs would run 08:00 + 20 min + 10 min + 1 h + 1.5 h + 25 min + 20 min home, fine; add trim at b2 after 10:00 → window
-      { farrierId: 'f1', jobIds: ['hot', 'mine'] },
+      // 'mine' is pinned to stop 1 but comes after the stop at b2
+      { farrierId: 'f1', jobIds: ['trim', 'mine'] },
       { farrierId: 'zed', jobIds: ['trim'] },
     ]);
     const codes = r.violations.map((v) => v.code);
