@@ -37,8 +37,6 @@ export interface Directions {
 const STRAIGHT = 20;
 const SLIGHT = 50;
 const SHARP = 135;
-/** An alternative branch within this angle of ours makes the junction a fork ("keep"). */
-const FORK = 35;
 
 interface Stretch {
   /** Road index, or -1 for the access stretch between a place and its road. */
@@ -234,23 +232,16 @@ export function directions(graph: RoadGraph, from: LatLon, to: LatLon, units: Un
       }
       const abs = Math.abs(angle);
       const side: 'left' | 'right' = angle < 0 ? 'left' : 'right';
+      // A fork: we and another way out both run within SLIGHT of straight on; say which branch to keep to.
+      const fork = abs < SLIGHT ? others.filter((o) => Math.abs(o) < SLIGHT).sort((x, y) => Math.abs(x - angle) - Math.abs(y - angle))[0] : undefined;
       let kind: StepKind | null = null;
-      if (abs < STRAIGHT) {
-        const fork = others.find((o) => Math.abs(o - angle) < FORK && Math.abs(o) < SLIGHT);
-        if (fork !== undefined) kind = 'keep';
-        else if (!sameRoad) kind = 'continue';
-      } else if (abs < SLIGHT) {
-        // A bend of the same road with no other way out is no maneuver.
-        kind = sameRoad && others.length === 0 ? null : 'slight';
-        if (kind === 'slight' && sameRoad && !others.some((o) => Math.abs(o) < Math.abs(angle))) kind = null;
-      } else if (abs < SHARP) {
-        kind = sameRoad && others.length === 0 ? null : 'turn';
-      } else {
-        kind = sameRoad && others.length === 0 ? null : 'sharp';
-      }
+      if (fork !== undefined) kind = 'keep';
+      else if (abs < STRAIGHT) kind = sameRoad ? null : 'continue';
+      else if (abs < SLIGHT) kind = sameRoad && others.length === 0 ? null : 'slight';
+      else if (abs < SHARP) kind = sameRoad && others.length === 0 ? null : 'turn';
+      else kind = sameRoad && others.length === 0 ? null : 'sharp';
       if (kind === 'keep') {
-        const fork = others.find((o) => Math.abs(o - angle) < FORK && Math.abs(o) < SLIGHT)!;
-        drafts.push({ kind, side: angle < fork ? 'left' : 'right', road: s.road, stay: sameRoad, heading: '', distMm: 0, costMs: 0 });
+        drafts.push({ kind, side: angle < fork! ? 'left' : 'right', road: s.road, stay: sameRoad, heading: '', distMm: 0, costMs: 0 });
       } else if (kind) {
         drafts.push({ kind, side: kind === 'continue' ? undefined : side, road: s.road, stay: sameRoad, heading: '', distMm: 0, costMs: 0 });
       } else if (!sameRoad) {
