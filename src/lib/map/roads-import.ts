@@ -123,12 +123,14 @@ export function planRoadsImport(doc: unknown): ImportPlan {
         problems.push(`${where}: a road (highway=${highway}) must be a LineString or MultiLineString, not ${geom?.type ?? 'missing geometry'}`);
         return;
       }
+      // Every problem of a road is listed, not just the first.
+      const found: string[] = [];
       const lines = geom.type === 'LineString' ? [geom.coordinates] : Array.isArray(geom.coordinates) ? geom.coordinates : [null];
       for (const line of lines) {
         const bad = lineProblems(line);
         if (bad) {
-          problems.push(`${where}: ${bad}`);
-          return;
+          found.push(bad);
+          break;
         }
         for (const p of line as number[][]) {
           west = Math.min(west, p[0]!);
@@ -138,20 +140,15 @@ export function planRoadsImport(doc: unknown): ImportPlan {
         }
       }
       const oneway = props.oneway;
-      if (oneway !== undefined && (typeof oneway !== 'string' || !ONEWAY_VALUES.has(oneway.toLowerCase()))) {
-        problems.push(`${where}: oneway=${JSON.stringify(oneway)} is not one of yes, no, -1`);
-        return;
-      }
+      if (oneway !== undefined && (typeof oneway !== 'string' || !ONEWAY_VALUES.has(oneway.toLowerCase()))) found.push(`oneway=${JSON.stringify(oneway)} is not one of yes, no, -1`);
       const maxspeed = props.maxspeed;
       if (maxspeed !== undefined && parseMaxspeedKmh(maxspeed) === null && !(typeof maxspeed === 'string' && MAXSPEED_SYMBOLS.test(maxspeed))) {
-        problems.push(`${where}: maxspeed=${JSON.stringify(maxspeed)} is not a speed such as "45 mph" or "70"`);
-        return;
+        found.push(`maxspeed=${JSON.stringify(maxspeed)} is not a speed such as "45 mph" or "70"`);
       }
-      for (const key of ['name', 'ref'] as const) {
-        if (props[key] !== undefined && typeof props[key] !== 'string') {
-          problems.push(`${where}: ${key} must be text`);
-          return;
-        }
+      for (const key of ['name', 'ref'] as const) if (props[key] !== undefined && typeof props[key] !== 'string') found.push(`${key} must be text`);
+      if (found.length > 0) {
+        for (const f of found) problems.push(`${where}: ${f}`);
+        return;
       }
       sources.roads.features.push({ type: 'Feature', geometry: geom as GeoJSON.Geometry, properties: props as GeoJSON.GeoJsonProperties });
       counts.roads++;
