@@ -11,8 +11,12 @@ interface FarrierOption { id: number; name: string }
 
 const ROLE = { lead: 'Lead', dispatcher: 'Dispatcher', farrier: 'Farrier' } as Record<string, string>;
 
-function Team({ farriers }: { farriers: FarrierOption[] }) {
+function Team({ farriers, selfId }: { farriers: FarrierOption[]; selfId: number }) {
   const client = useQueryClient();
+  const toggle = useMutation({
+    mutationFn: (u: User) => api<{ user: User }>(`/api/users/${u.id}`, { method: 'PATCH', body: { active: !u.active } }),
+    onSuccess: () => void client.invalidateQueries({ queryKey: ['users'] }),
+  });
   const users = useQuery({ queryKey: ['users'], queryFn: () => api<{ users: User[] }>('/api/users') });
   const invites = useQuery({ queryKey: ['invites'], queryFn: () => api<{ invites: Invite[] }>('/api/invites') });
   const [form, setForm] = useState({ email: '', name: '', role: 'dispatcher', farrierId: '' });
@@ -50,10 +54,11 @@ function Team({ farriers }: { farriers: FarrierOption[] }) {
         <h2 className="px-4 pt-4">People</h2>
         {users.isPending && <p className="p-4 text-sm text-slateblue-500">Loading…</p>}
         {users.isError && <p role="alert" className="p-4 text-sm text-ember-800">Could not load the team: {users.error.message}</p>}
+        {toggle.isError && <p role="alert" className="px-4 text-sm text-ember-800">{toggle.error.message}</p>}
         {users.data && (
           <table className="mt-2 w-full text-sm">
             <thead className="bg-slateblue-50 text-left text-xs uppercase tracking-wide text-slateblue-500">
-              <tr><th className="px-4 py-2">Name</th><th className="px-4 py-2">E-mail</th><th className="px-4 py-2">Role</th><th className="px-4 py-2">State</th></tr>
+              <tr><th className="px-4 py-2">Name</th><th className="px-4 py-2">E-mail</th><th className="px-4 py-2">Role</th><th className="px-4 py-2">State</th><th className="px-4 py-2"><span className="sr-only">Change</span></th></tr>
             </thead>
             <tbody>
               {users.data.users.map((u) => (
@@ -62,6 +67,13 @@ function Team({ farriers }: { farriers: FarrierOption[] }) {
                   <td className="px-4 py-2 font-mono text-xs">{u.email}</td>
                   <td className="px-4 py-2">{ROLE[u.role]}</td>
                   <td className="px-4 py-2">{u.active ? 'active' : 'deactivated'}</td>
+                  <td className="px-4 py-2 text-right">
+                    {u.id !== selfId && (
+                      <button type="button" className="text-xs font-semibold text-ember-700 hover:underline disabled:opacity-50" disabled={toggle.isPending} onClick={() => toggle.mutate(u)}>
+                        {u.active ? 'Deactivate' : 'Reactivate'}
+                      </button>
+                    )}
+                  </td>
                 </tr>
               ))}
             </tbody>
@@ -111,6 +123,6 @@ function Team({ farriers }: { farriers: FarrierOption[] }) {
   );
 }
 
-export default function TeamPanel(props: { farriers: FarrierOption[] }) {
+export default function TeamPanel(props: { farriers: FarrierOption[]; selfId: number }) {
   return <QueryRoot><Team {...props} /></QueryRoot>;
 }
