@@ -41,7 +41,7 @@ interface Row {
 }
 
 export async function getTextSettings(db: Knex | Knex.Transaction, practiceId: number): Promise<TextSettings> {
-  const row = await db<Row>('practice_text_settings').where({ practice_id: practiceId }).first();
+  const row = (await db('practice_text_settings').where({ practice_id: practiceId }).first()) as Row | undefined;
   if (!row) return { ...DEFAULT_TEXT_SETTINGS };
   return {
     arrivalTemplate: row.arrival_template,
