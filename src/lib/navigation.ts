@@ -15,13 +15,13 @@ export interface Screen {
  * builds each role's navigation from them; a screen not built yet shows as such, with no content.
  */
 export const SCREENS: Screen[] = [
-  { href: '/dispatch', label: 'Dispatch', rule: 'dispatcher', ready: false, blurb: 'Plan a day for the whole team on the map and the board.' },
+  { href: '/dispatch', label: 'Dispatch', rule: 'dispatcher', ready: true, blurb: 'Plan a day for the whole team on the map and the board.' },
   { href: '/day', label: 'Day sheet', rule: 'signed-in', ready: true, blurb: 'Your stops in order, with directions and horse notes.' },
-  { href: '/due', label: 'Due list', rule: 'dispatcher', ready: false, blurb: 'Horses coming due, overdue first.' },
-  { href: '/horses', label: 'Horses', rule: 'dispatcher', ready: false, blurb: 'Every horse, its cycle, work and history.' },
-  { href: '/barns', label: 'Barns', rule: 'dispatcher', ready: false, blurb: 'Where horses are kept, access hours and notes.' },
-  { href: '/owners', label: 'Owners', rule: 'dispatcher', ready: false, blurb: 'Clients, phone numbers and text consent.' },
-  { href: '/work-types', label: 'Work types', rule: 'dispatcher', ready: false, blurb: 'Minutes, forge and qualification per kind of work.' },
+  { href: '/due', label: 'Due list', rule: 'dispatcher', ready: true, blurb: 'Horses coming due, overdue first.' },
+  { href: '/horses', label: 'Horses', rule: 'dispatcher', ready: true, blurb: 'Every horse, its cycle, work and history.' },
+  { href: '/barns', label: 'Barns', rule: 'dispatcher', ready: true, blurb: 'Where horses are kept, access hours and notes.' },
+  { href: '/owners', label: 'Owners', rule: 'dispatcher', ready: true, blurb: 'Clients, phone numbers and text consent.' },
+  { href: '/work-types', label: 'Work types', rule: 'dispatcher', ready: true, blurb: 'Minutes, forge and qualification per kind of work.' },
   { href: '/map', label: 'Region map', rule: 'signed-in', ready: false, blurb: 'Barns and farrier homes on the practice map.' },
   { href: '/messages', label: 'Messages', rule: 'dispatcher', ready: true, blurb: 'Texts and e-mails sent to owners and farriers.' },
   { href: '/team', label: 'Team', rule: 'lead', ready: true, blurb: 'People who sign in, and invitations.' },

@@ -8,6 +8,8 @@ export const IMPORT_FIELDS = [
   { key: 'textConsent', label: 'Text consent (yes/no)', required: false },
   { key: 'barnName', label: 'Barn name', required: true },
   { key: 'barnAddress', label: 'Barn address', required: false },
+  { key: 'barnLat', label: 'Barn latitude', required: false },
+  { key: 'barnLon', label: 'Barn longitude', required: false },
   { key: 'horseName', label: 'Horse name', required: true },
   { key: 'cycleWeeks', label: 'Cycle weeks', required: false },
   { key: 'lastVisitOn', label: 'Last visit', required: false },

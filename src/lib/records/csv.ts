@@ -71,7 +71,7 @@ export interface ImportPlan {
   rows: number;
   badRows: { line: number; reasons: string[] }[];
   newOwners: Map<string, { name: string; phone: string | null; email: string | null; textConsent: boolean }>;
-  newBarns: Map<string, { name: string; address: string; addressPointId: string; lat: number; lon: number }>;
+  newBarns: Map<string, { name: string; address: string; addressPointId: string | null; lat: number; lon: number }>;
   horses: PlannedHorse[];
   /** Rows whose horse is already on record (same owner, barn and name): re-importing changes nothing. */
   unchanged: number[];
@@ -142,12 +142,21 @@ export function planImport(parsed: ParsedCsv, mapping: ImportMapping, ctx: Impor
       else {
         const address = cell(row, 'barnAddress');
         const point = address ? ctx.findAddress(address) : null;
+        const latText = cell(row, 'barnLat');
+        const lonText = cell(row, 'barnLon');
+        const lat = Number(latText);
+        const lon = Number(lonText);
+        const pinned = latText !== '' && lonText !== '' && Number.isFinite(lat) && Number.isFinite(lon) && Math.abs(lat) <= 90 && Math.abs(lon) <= 180;
+        if ((latText !== '' || lonText !== '') && !pinned) reasons.push(`Barn position "${latText}, ${lonText}" is not a latitude and longitude`);
         const key = barnName.toLowerCase();
         const already = plan.newBarns.get(key);
-        if (!point) reasons.push(address ? `Unknown barn "${barnName}": address "${address}" is not one of the region's address points` : `Unknown barn "${barnName}": not one of your barns, and no address given to add it`);
-        else if (already && already.addressPointId !== point.id) reasons.push(`Barn "${barnName}" is given two different addresses`);
+        // A barn not on record is added when the row places it: an address of the region's address
+        // points, or an address with a hand-set position (latitude and longitude).
+        const placed = point ? { address: point.text, addressPointId: point.id as string | null, lat: point.lat, lon: point.lon } : pinned && address ? { address, addressPointId: null, lat, lon } : null;
+        if (!placed) reasons.push(address ? `Unknown barn "${barnName}": address "${address}" is not one of the region's address points and no position is given` : `Unknown barn "${barnName}": not one of your barns, and no address given to add it`);
+        else if (already && (already.address !== placed.address || already.lat !== placed.lat || already.lon !== placed.lon)) reasons.push(`Barn "${barnName}" is given two different places`);
         else barn = { newKey: key };
-        if (point && !already && reasons.length === 0) plan.newBarns.set(key, { name: barnName, address: point.text, addressPointId: point.id, lat: point.lat, lon: point.lon });
+        if (placed && !already && reasons.length === 0) plan.newBarns.set(key, { name: barnName, ...placed });
       }
     }
 
