@@ -223,8 +223,10 @@ interface DueRow {
  * (a text due inside them gets send_after = the end of the span, 08:00 by default), not to an owner who
  * opted out since it was queued, and not after the window it announces has ended. Each row is claimed
  * with a conditional update first, so two senders running at once never send the same text twice.
+ * `planId` limits the run to one plan's texts (right after its publish).
  */
-export async function sendDueMessages(db: Knex, now: Date = new Date(), limit = 200): Promise<SendResult> {
+export async function sendDueMessages(db: Knex, now: Date = new Date(), options: { limit?: number; planId?: number } = {}): Promise<SendResult> {
+  const limit = options.limit ?? 200;
   const result: SendResult = { sent: 0, deferred: 0, suppressed: 0, failed: 0 };
   const rows: DueRow[] = await db('messages as m')
     .join('practices as p', 'p.id', 'm.practice_id')
@@ -233,6 +235,9 @@ export async function sendDueMessages(db: Knex, now: Date = new Date(), limit = 
     .where({ 'm.channel': 'sms', 'm.direction': 'out', 'm.state': 'queued' })
     .whereNull('m.provider_id')
     .andWhere((q) => q.whereNull('m.send_after').orWhere('m.send_after', '<=', now))
+    .modify((q) => {
+      if (options.planId) q.andWhere('m.plan_id', options.planId);
+    })
     .select('m.id', 'm.practice_id', 'm.to_address', 'm.body', 'm.owner_id', 'm.stop_id', 'p.time_zone', 'o.opted_out_at', 's.window_end_at')
     .orderBy('m.id')
     .limit(limit);
