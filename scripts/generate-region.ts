@@ -219,12 +219,30 @@ function meander(ctrl: XY[], amplitude: number, depth = 5): XY[] {
       const len = dist(a, b);
       const nx = -(b[1] - a[1]) / (len || 1);
       const ny = (b[0] - a[0]) / (len || 1);
-      const off = gauss() * amplitude * len;
+      // Smaller wiggles at finer levels: long gentle bends rather than a jagged line.
+      const off = gauss() * amplitude * len * 0.75 ** d;
       next.push([(a[0] + b[0]) / 2 + nx * off, (a[1] + b[1]) / 2 + ny * off], b);
     }
     pts = next;
   }
   return pts;
+}
+
+/** Chaikin corner cutting: rounds the corners of a polyline, keeping its ends, as roads curve. */
+function smooth(pts: XY[], iterations: number): XY[] {
+  let out = pts;
+  for (let k = 0; k < iterations; k++) {
+    if (out.length < 3) return out;
+    const next: XY[] = [out[0]!];
+    for (let i = 0; i + 1 < out.length; i++) {
+      const a = out[i]!;
+      const b = out[i + 1]!;
+      next.push(lerp(a, b, 0.25), lerp(a, b, 0.75));
+    }
+    next.push(out[out.length - 1]!);
+    out = next;
+  }
+  return out;
 }
 
 /** A wandering lane: a random walk with a slowly turning heading. */
@@ -299,7 +317,7 @@ const highways: { ref: string; name: string; highway: string; maxspeed: string; 
 ];
 for (const h of highways) {
   const ctrl = h.ctrl.map((p, i) => (i === 0 || i === h.ctrl.length - 1 ? p : near(p, 120)));
-  placeRoad(meander(ctrl, 0.06, 5), { highway: h.highway, name: h.name, ref: h.ref, maxspeed: h.maxspeed }, 'through');
+  placeRoad(smooth(meander(ctrl, 0.06, 5), 2), { highway: h.highway, name: h.name, ref: h.ref, maxspeed: h.maxspeed }, 'through');
 }
 
 const countyLinks: [string, string | XY, string][] = [
@@ -310,7 +328,7 @@ const countyLinks: [string, string | XY, string][] = [
   ['Merrowdale', 'Fennick Mill', 'Fennick Road'],
   ['Ostlebury', 'Quillby', 'Quillby Road'],
   ['Merrowdale', [HALF_M - 200, 9500], 'Eastmere Road'],
-  ['Tansywick', [-6000, HALF_M - 200], 'Northcote Road'],
+  ['Tansywick', [-6000, HALF_M - 200], 'Northfold Road'],
   ['Brackenhollow', [-HALF_M + 200, -12500], 'Lowfield Road'],
   ['Fennick Mill', [11000, -HALF_M + 200], 'Weir Road'],
   ['Corvane', [7500, HALF_M - 200], 'Hilltop Road'],
@@ -320,7 +338,7 @@ for (const [a, b, name] of countyLinks) {
   // Links start and end inside a village's street grid, so that they always cross one of its streets.
   const pa = near(V(a), 25);
   const pb = typeof b === 'string' ? near(V(b), 25) : b;
-  placeRoad(meander([pa, pb], 0.09, 5), { highway: 'tertiary', name, ref: `CR ${countyRef}`, maxspeed: '45 mph' }, 'through');
+  placeRoad(smooth(meander([pa, pb], 0.09, 5), 2), { highway: 'tertiary', name, ref: `CR ${countyRef}`, maxspeed: '45 mph' }, 'through');
   countyRef += 12;
 }
 
@@ -328,9 +346,9 @@ for (const [a, b, name] of countyLinks) {
 // Lanes (unclassified) and farm drives (service), branching off placed roads
 // ---------------------------------------------------------------------------------------------
 
-const LANE_WORDS = ['Hollin', 'Sorrel', 'Tolley', 'Birchet', 'Cobble', 'Heron', 'Quarry', 'Larkspur', 'Oxbow', 'Pennywort', 'Saddler', 'Thistle', 'Wicket', 'Yarrow', 'Gorse', 'Sparrowgrass', 'Cinder', 'Dapple', 'Foxglove', 'Kestrel', 'Linnet', 'Marrow', 'Nettle', 'Plover', 'Sedgewick', 'Thrushwell', 'Umber', 'Vetch', 'Wold', 'Alder', 'Bittern', 'Coltsfoot', 'Dunlin', 'Elder', 'Furrow', 'Gannet', 'Hawthorn', 'Wrenbeck', 'Juniper', 'Knapweed'];
+const LANE_WORDS = ['Hollin', 'Sorrel', 'Tolley', 'Birchet', 'Cobble', 'Heron', 'Quarry', 'Larkspur', 'Oxbow', 'Pennywort', 'Saddler', 'Thistle', 'Wicket', 'Yarrow', 'Gorse', 'Sparrowgrass', 'Cinder', 'Dapple', 'Foxglove', 'Kestrel', 'Linnet', 'Marrow', 'Nettle', 'Plover', 'Marshwort', 'Thrushwell', 'Umber', 'Vetch', 'Wold', 'Alder', 'Bittern', 'Coltsfoot', 'Dunlin', 'Elder', 'Furrow', 'Gannet', 'Hawthorn', 'Wrenbeck', 'Juniper', 'Knapweed'];
 const LANE_SUFFIX = ['Lane', 'Lane', 'Lane', 'Road', 'Run', 'Way', 'Hollow Road', 'Ridge Lane', 'Mill Lane', 'Bottom Road'];
-const FARM_PREFIX = ['Hay', 'Clover', 'Stone', 'Willow', 'Fallow', 'Lark', 'Meadow', 'Ash', 'Oak', 'Brook', 'Fern', 'Holly', 'Rush', 'Hazel', 'Bramble', 'Sedge', 'Thorn', 'Maple', 'Cedar', 'Rowan', 'Teasel', 'Burdock', 'Mallow', 'Sorrel'];
+const FARM_PREFIX = ['Hay', 'Clover', 'Stone', 'Willow', 'Fallow', 'Lark', 'Meadow', 'Chervil', 'Yarrow', 'Brook', 'Fern', 'Holly', 'Rush', 'Hazel', 'Bramble', 'Sedge', 'Thorn', 'Maple', 'Cedar', 'Rowan', 'Teasel', 'Burdock', 'Mallow', 'Sorrel'];
 const FARM_SUFFIX = ['rake', 'crop', 'sweet', 'croft', 'thatch', 'knoll', 'rise', 'bank', 'stead', 'tussock', 'furlong', 'sheaf'];
 const usedNames = new Set(roads.map((r) => r.tags.name));
 function uniqueName(make: () => string): string {
@@ -383,8 +401,9 @@ for (let tries = 0, made = 0; made < 95 && tries < 2000; tries++) {
   const spot = randomSpot(pool);
   if (!spot || !farVillage(spot.p, 700)) continue;
   const side = rand() < 0.5 ? 1 : -1;
-  const raw = walk(spot.p, spot.heading + side * (Math.PI / 2 + gauss() * 0.35), between(1200, 4200), 130, 0.22);
-  if (raw.length < 3 || nearestRoadM(raw[1]!, 60) < 40) continue;
+  const raw = smooth(walk(spot.p, spot.heading + side * (Math.PI / 2 + gauss() * 0.35), between(1200, 4200), 130, 0.22), 2);
+  const probe = raw.find((p) => dist(p, raw[0]!) >= 100);
+  if (raw.length < 3 || !probe || nearestRoadM(probe, 60) < 40) continue;
   const name = uniqueName(() => `${pick(LANE_WORDS)} ${pick(LANE_SUFFIX)}`);
   const maxspeed = rand() < 0.3 ? { maxspeed: '35 mph' } : {};
   const placed = placeRoad(raw, { highway: 'unclassified', name, ...maxspeed }, rand() < 0.55 ? 'stop' : 'through', { line: spot.line.id, seg: spot.seg, t: spot.t });
@@ -398,12 +417,14 @@ for (let tries = 0; drives.length < 190 && tries < 4000; tries++) {
   const spot = randomSpot(pool);
   if (!spot || !farVillage(spot.p, 900)) continue;
   const side = rand() < 0.5 ? 1 : -1;
-  let raw = walk(spot.p, spot.heading + side * (Math.PI / 2 + gauss() * 0.3), between(220, 900), 70, 0.3);
+  let raw = smooth(walk(spot.p, spot.heading + side * (Math.PI / 2 + gauss() * 0.3), between(220, 900), 70, 0.3), 1);
   if (raw.length < 3) continue;
   // Farm drives end short of other roads: cut at the first point within 80 m of one.
-  const cut = raw.findIndex((p, i) => i > 1 && nearestRoadM(p, 100) < 80);
+  const start = raw[0]!;
+  const cut = raw.findIndex((p) => dist(p, start) >= 120 && nearestRoadM(p, 100) < 80);
   if (cut > 0) raw = raw.slice(0, cut);
-  if (raw.length < 3 || nearestRoadM(raw[1]!, 60) < 30) continue;
+  const probe = raw.find((p) => dist(p, start) >= 60);
+  if (raw.length < 3 || !probe || nearestRoadM(probe, 60) < 30) continue;
   const name = uniqueName(() => `${pick(FARM_PREFIX)}${pick(FARM_SUFFIX)} Farm Drive`);
   const placed = placeRoad(raw, { highway: 'service', service: 'driveway', name }, 'stop', { line: spot.line.id, seg: spot.seg, t: spot.t });
   if (placed && placed.pts.length === raw.length) drives.push(placed);
@@ -566,7 +587,7 @@ STREAMS.forEach((name, i) => {
   const u = between(-HALF_M * 0.8, HALF_M * 0.8);
   const start: XY = edge === 0 ? [-HALF_M + 300, u] : edge === 1 ? [HALF_M - 300, u] : edge === 2 ? [u, HALF_M - 300] : [u, -HALF_M + 300];
   const heading = Math.atan2(-start[1], -start[0]) + gauss() * 0.5;
-  const pts = walk(start, heading, between(9000, 16000), 150, 0.3);
+  const pts = smooth(walk(start, heading, between(9000, 16000), 150, 0.3), 2);
   waterFeatures.push({ type: 'Feature', geometry: { type: 'LineString', coordinates: pts.map(toLonLat) }, properties: { waterway: i < 2 ? 'river' : 'stream', name } });
 });
 

@@ -13,6 +13,7 @@ describe('region map', () => {
   const requested: string[] = [];
   const failed: string[] = [];
   const statuses = new Map<string, number>();
+  const consoleLines: string[] = [];
 
   beforeAll(async () => {
     browser = await launch({ viewport: { width: 1400, height: 900 } });
@@ -29,7 +30,11 @@ describe('region map', () => {
     await signIn(browser.page, 'dispatcher@demo.test');
     requested.length = 0;
     await browser.page.goto(`${APP_URL}/map`);
+    browser.page.on('console', (m) => {
+      if (m.type() === 'error' || m.type() === 'warning') consoleLines.push(`${m.type()}: ${m.text()}`);
+    });
     await browser.page.waitForSelector('[data-map-ready="true"]', { timeout: 60_000 });
+    await screenshot(browser.page, 'map-loaded');
     // Road names are placed once their tiles and glyphs are in: wait until some are on screen.
     await browser.page.waitForFunction(() => Number(document.querySelector('[data-road-labels]')?.getAttribute('data-road-labels') ?? 0) > 0, undefined, { timeout: 60_000 });
   });
@@ -61,6 +66,8 @@ describe('region map', () => {
     const glyphUrls = requested.filter((u) => u.includes('/tiles/glyphs/'));
     expect(glyphUrls.length).toBeGreaterThan(0);
     for (const u of glyphUrls) expect(statuses.get(u)).toBe(200);
+    // MapLibre reports a missing glyph range or a bad style or tile as a console error.
+    expect(consoleLines.filter((l) => l.startsWith('error'))).toEqual([]);
   });
 
   it('keeps every request of the page on 127.0.0.1 or localhost', () => {

@@ -96,7 +96,7 @@ export default function MapView({ barns, homes, routes = [], selectedBarnId, onB
   const onIdle = useCallback(() => {
     // Exposed on the container for people and tests alike: how many road names are on screen.
     const map = mapRef.current;
-    if (map) setRoadLabels(map.queryRenderedFeatures(undefined, { layers: ['road-label'] }).length);
+    if (map) setRoadLabels(map.queryRenderedFeatures(undefined, { layers: ['road-label', 'road-label-minor'] }).length);
   }, []);
 
   const legendStates = Object.keys(DUE_STATES) as DueState[];

@@ -64,6 +64,27 @@ function roadPair(id: string, classes: string[], colours: { fill: string; casing
   ];
 }
 
+function roadLabel(id: string, classes: string[], minzoom: number, sizes: number[]): LayerSpecification {
+  return {
+    id,
+    type: 'symbol',
+    source: 'region',
+    'source-layer': 'roads',
+    minzoom,
+    filter: ['all', inClass(classes), ['any', ['has', 'name'], ['has', 'ref']]],
+    layout: {
+      'symbol-placement': 'line',
+      'symbol-spacing': 280,
+      'text-field': ['coalesce', ['get', 'name'], ['get', 'ref']],
+      'text-font': ['Inter Regular'],
+      'text-size': ['interpolate', ['linear'], ['zoom'], ...sizes],
+      'text-max-angle': 45,
+      'text-padding': 4,
+    },
+    paint: { 'text-color': BASE_COLOURS.roadLabel, 'text-halo-color': BASE_COLOURS.roadHalo, 'text-halo-width': 1.4 },
+  };
+}
+
 export interface StyleOptions {
   /** Origin of the request, e.g. "http://127.0.0.1:4321"; every URL in the style starts with it. */
   origin: string;
@@ -145,24 +166,9 @@ export function buildStyle({ origin, region }: StyleOptions): StyleSpecification
       layout: { 'text-field': ['get', 'name'], 'text-font': ['Inter Italic'], 'text-size': 11 },
       paint: { 'text-color': C.woodsLabel, 'text-halo-color': C.roadHalo, 'text-halo-width': 1 },
     },
-    {
-      id: 'road-label',
-      type: 'symbol',
-      source: 'region',
-      'source-layer': 'roads',
-      minzoom: 11,
-      filter: ['any', ['has', 'name'], ['has', 'ref']],
-      layout: {
-        'symbol-placement': 'line',
-        'symbol-spacing': 280,
-        'text-field': ['coalesce', ['get', 'name'], ['get', 'ref']],
-        'text-font': ['Inter Regular'],
-        'text-size': ['interpolate', ['linear'], ['zoom'], 11, 10, 14, 12, 17, 14],
-        'text-max-angle': 35,
-        'text-padding': 4,
-      },
-      paint: { 'text-color': C.roadLabel, 'text-halo-color': C.roadHalo, 'text-halo-width': 1.4 },
-    },
+    // Names of highways and county roads from zoom 10; lanes, streets and drives from zoom 13.
+    roadLabel('road-label', [...MAJOR, ...SECONDARY, ...TERTIARY], 10, [10, 10, 13, 12, 17, 14]),
+    roadLabel('road-label-minor', [...MINOR, ...SERVICE], 13, [13, 10, 15, 12, 17, 13]),
     {
       id: 'village-label',
       type: 'symbol',

@@ -40,8 +40,8 @@ describe('GET /tiles/style.json', () => {
   it('has land, water, woods, cased roads, road-name labels along lines and village labels, in fonts we ship', async () => {
     const s = await style();
     const ids = s.layers.map((l) => l.id);
-    for (const id of ['land', 'water', 'woods', 'road-major-casing', 'road-major', 'road-minor-casing', 'road-label', 'village-label']) expect(ids).toContain(id);
-    expect(s.layers.find((l) => l.id === 'road-label')!.layout!['symbol-placement']).toBe('line');
+    for (const id of ['land', 'water', 'woods', 'road-major-casing', 'road-major', 'road-minor-casing', 'road-label', 'road-label-minor', 'village-label']) expect(ids).toContain(id);
+    for (const id of ['road-label', 'road-label-minor']) expect(s.layers.find((l) => l.id === id)!.layout!['symbol-placement']).toBe('line');
     const shipped = new Set(MAP_FONTS.map((f) => f.stack));
     for (const l of s.layers) {
       const fonts = l.layout?.['text-font'] as string[] | undefined;
