@@ -7,14 +7,20 @@ import type { State } from './state';
  * pure (returns the exact cost change, Infinity when a hard rule breaks) and `apply()` commits it.
  * Moves are built around a job `u` and one of its near neighbours `v` (granular neighbourhoods).
  */
-export type MoveKind = 'relocate' | 'swap' | 'two-opt-star' | 'or-opt' | 'cross-exchange' | 'two-opt';
+export type MoveKind = 'relocate' | 'swap' | 'two-opt-star' | 'or-opt' | 'cross-exchange' | 'two-opt' | 'insert-unplanned' | 'exchange-unplanned';
 
 export class Move {
-  constructor(readonly kind: MoveKind, readonly changes: { f: number; seq: number[] }[]) {}
+  /**
+   * `changes`: new sequences of the routes the move rewrites. `enter` / `leave`: jobs that join the
+   * plan from the unplanned list or leave it (their leave-out costs are part of the change).
+   */
+  constructor(readonly kind: MoveKind, readonly changes: { f: number; seq: number[] }[], readonly enter: number[] = [], readonly leave: number[] = []) {}
 
   /** Exact cost change of the move on `s`, without changing `s`. */
   evaluate(s: State): number {
     let d = 0;
+    for (const j of this.enter) d -= s.m.leaveOutCost[j];
+    for (const j of this.leave) d += s.m.leaveOutCost[j];
     for (const c of this.changes) {
       const e = evalRoute(s.m, c.f, c.seq);
       if (!e.feasible) return Infinity;
@@ -25,9 +31,26 @@ export class Move {
 
   apply(s: State): void {
     for (const c of this.changes) s.routes[c.f] = c.seq.slice();
+    for (const j of this.leave) { s.routeOf[j] = -1; s.unassigned.add(j); }
+    for (const j of this.enter) s.unassigned.delete(j);
     for (const c of this.changes) s.refresh(c.f);
     s.recomputeCost();
   }
+}
+
+/**
+ * Moves between the plan and the unplanned list, for days where some jobs may be left out:
+ * insert an unplanned job u next to a planned neighbour v, or put u in v's place (v leaves).
+ */
+export function unplannedMoves(s: State, u: number, v: number): Move[] {
+  const B = s.routeOf[v];
+  if (B < 0 || s.routeOf[u] >= 0 || !s.m.eligible[B * s.m.nJobs + u]) return [];
+  const rb = s.routes[B], b = rb.indexOf(v);
+  return [
+    new Move('insert-unplanned', [{ f: B, seq: [...rb.slice(0, b + 1), u, ...rb.slice(b + 1)] }], [u]),
+    new Move('insert-unplanned', [{ f: B, seq: [...rb.slice(0, b), u, ...rb.slice(b)] }], [u]),
+    new Move('exchange-unplanned', [{ f: B, seq: [...rb.slice(0, b), u, ...rb.slice(b + 1)] }], [u], [v]),
+  ];
 }
 
 /**
@@ -121,13 +144,15 @@ export function movesToEmpty(s: State, u: number): Move[] {
 }
 
 /**
- * First-improvement descent over the moves above with granular neighbourhoods (nearest `k` jobs).
+ * First-improvement descent over the moves above with granular neighbourhoods (nearest `k` jobs);
+ * `focus` limits it to the jobs of the given routes (the routes the last search step changed).
  * Never accepts a move that does not lower the cost, so it cannot worsen a plan.
  */
-export function localSearch(s: State, rng: Rng, k = 15, maxPasses = 50): number {
+export function localSearch(s: State, rng: Rng, k = 15, maxPasses = 50, focus?: Set<number>): number {
   const m = s.m;
   let applied = 0;
-  const order = Array.from({ length: m.nJobs }, (_, i) => i);
+  // with a focus, only jobs on those routes are moved (their neighbours may be anywhere)
+  const order = focus ? [...focus].flatMap((f) => s.routes[f]) : Array.from({ length: m.nJobs }, (_, i) => i);
   const eps = 1e-7 * Math.max(1, m.typicalArcCost);
   for (let pass = 0; pass < maxPasses; pass++) {
     let improved = false;
@@ -146,6 +171,19 @@ export function localSearch(s: State, rng: Rng, k = 15, maxPasses = 50): number 
       if (!done && !m.fleetObjective) {
         for (const mv of movesToEmpty(s, u)) {
           if (mv.evaluate(s) < -eps) { mv.apply(s); applied++; improved = true; break; }
+        }
+      }
+    }
+    // jobs left out: try to bring each back beside, or instead of, a planned neighbour
+    if (s.unassigned.size && !m.fleetObjective) {
+      for (const u of [...s.unassigned]) {
+        if (s.routeOf[u] >= 0) continue;
+        const nb = m.neighbours[u];
+        let done = false;
+        for (let t = 0; t < Math.min(k, nb.length) && !done; t++) {
+          for (const mv of unplannedMoves(s, u, nb[t])) {
+            if (mv.evaluate(s) < -eps) { mv.apply(s); applied++; improved = true; done = true; break; }
+          }
         }
       }
     }

@@ -1,4 +1,11 @@
-import { earliestIn, type Model } from './model';
+import type { Model } from './model';
+
+// Local copies of the window look-ups: this is the hottest code in the engine, and a cross-module
+// call goes through a binding getter once transpiled.
+function earliestIn(w: Float64Array, t: number): number {
+  for (let k = 0; k < w.length; k += 2) if (t <= w[k + 1]) return t < w[k] ? w[k] : t;
+  return Infinity;
+}
 
 /**
  * Exact timing and cost of one farrier's job sequence in the search model. This is the engine's own

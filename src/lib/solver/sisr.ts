@@ -18,10 +18,15 @@ export interface SisrParams {
 export const DEFAULT_SISR: SisrParams = { avgRemoved: 10, maxString: 10, blinkRate: 0.01, splitRate: 0.5 };
 
 export function ruin(s: State, rng: Rng, p: SisrParams): number[] {
+  return ruinAround(s, rng, p).removed;
+}
+
+/** The ruin step, also returning the seed job the strings were taken around. */
+export function ruinAround(s: State, rng: Rng, p: SisrParams): { removed: number[]; seed: number } {
   const m = s.m;
   let total = 0, used = 0;
   for (const r of s.routes) if (r.length) { total += r.length; used++; }
-  if (used === 0) return [];
+  if (used === 0) return { removed: [], seed: -1 };
   const avgCard = total / used;
   const lsMax = Math.min(p.maxString, avgCard);
   const ksMax = (4 * p.avgRemoved) / (1 + lsMax) - 1;
@@ -63,7 +68,34 @@ export function ruin(s: State, rng: Rng, p: SisrParams): number[] {
   const nb = m.neighbours[seed];
   for (let k = 0; k < nb.length && ruined.size < ks; k++) visit(nb[k]);
   s.removeMany(removed);
-  return removed;
+  return { removed, seed };
+}
+
+/**
+ * The jobs a recreate step should try: those just removed, plus left-out jobs near the ruined area
+ * and a few random left-out ones. Trying every left-out job each time would make an iteration cost
+ * grow with the number left out (hundreds on large days) without helping the search.
+ */
+export function recreateCandidates(s: State, rng: Rng, removed: number[], seed: number, hopeless: Uint8Array, extra = 4): number[] {
+  const out = removed.slice();
+  if (s.unassigned.size === removed.length) return out;
+  if (s.unassigned.size <= 40) return [...s.unassigned].filter((j) => !hopeless[j]);
+  const inList = new Set(out);
+  if (seed >= 0) {
+    const nb = s.m.neighbours[seed];
+    for (let k = 0; k < Math.min(20, nb.length); k++) {
+      const j = nb[k];
+      if (s.routeOf[j] < 0 && !hopeless[j] && !inList.has(j)) { out.push(j); inList.add(j); }
+    }
+  }
+  const pool = [...s.unassigned].filter((j) => !hopeless[j] && !inList.has(j));
+  for (let k = 0; k < extra && pool.length; k++) {
+    const i = rng.int(pool.length);
+    out.push(pool[i]);
+    pool[i] = pool[pool.length - 1];
+    pool.pop();
+  }
+  return out;
 }
 
 /**
@@ -71,9 +103,9 @@ export function ruin(s: State, rng: Rng, p: SisrParams): number[] {
  * home, closest to home). Jobs whose best insertion costs more than leaving them out stay out.
  * `allowed` restricts the routes that may receive jobs (fleet minimisation keeps empty routes closed).
  */
-export function recreate(s: State, rng: Rng, p: SisrParams, allowed?: Uint8Array): void {
+export function recreate(s: State, rng: Rng, p: SisrParams, allowed?: Uint8Array, only?: number[]): void {
   const m = s.m;
-  const jobs = [...s.unassigned];
+  const jobs = only ? only.slice() : [...s.unassigned];
   const order = rng.next() * 11;
   if (order < 4) rng.shuffle(jobs);
   else if (order < 8) { rng.shuffle(jobs); jobs.sort((a, b) => m.demand[b] - m.demand[a]); }
@@ -94,11 +126,8 @@ export function recreate(s: State, rng: Rng, p: SisrParams, allowed?: Uint8Array
         if (openedEmpty && m.fleetObjective) continue;
         openedEmpty = true;
       }
-      for (let pos = 0; pos <= n; pos++) {
-        if (rng.next() < p.blinkRate) continue;
-        const d = s.insertionDelta(j, f, pos);
-        if (d < best) { best = d; bf = f; bp = pos; }
-      }
+      const b = s.bestPosition(j, f, p.blinkRate, rng.next, best);
+      if (b.delta < best) { best = b.delta; bf = f; bp = b.pos; }
     }
     if (bf >= 0) s.insert(j, bf, bp);
   }
@@ -110,21 +139,16 @@ export function recreate(s: State, rng: Rng, p: SisrParams, allowed?: Uint8Array
  * that jobs with few good options are placed first. Used to build the first plan on problems of
  * moderate size; larger ones use cheapest insertion in a fixed order.
  */
-export function regretConstruct(s: State, rng: Rng): void {
+export function regretConstruct(s: State, rng: Rng, jobs?: number[]): void {
   const m = s.m, F = m.nFarriers;
   const bestIn = new Float64Array(m.nJobs * F);
   const bestPos = new Int32Array(m.nJobs * F);
   const evalRouteFor = (j: number, f: number) => {
-    let b = Infinity, bp = -1;
-    const n = s.routes[f].length;
-    for (let p = 0; p <= n; p++) {
-      const d = s.insertionDelta(j, f, p);
-      if (d < b) { b = d; bp = p; }
-    }
-    bestIn[j * F + f] = b;
-    bestPos[j * F + f] = bp;
+    const b = s.bestPosition(j, f, 0, rng.next);
+    bestIn[j * F + f] = b.delta;
+    bestPos[j * F + f] = b.pos;
   };
-  const open = [...s.unassigned];
+  const open = jobs ?? [...s.unassigned];
   for (const j of open) for (let f = 0; f < F; f++) evalRouteFor(j, f);
   const left = new Set(open);
   while (left.size) {
@@ -149,11 +173,16 @@ export function regretConstruct(s: State, rng: Rng): void {
 }
 
 /** Cheapest insertion in a fixed order (farthest from home first); linear in routes per job. */
-export function greedyConstruct(s: State, rng: Rng): void {
-  recreate(s, rng, { ...DEFAULT_SISR, blinkRate: 0 });
+export function greedyConstruct(s: State, rng: Rng, jobs?: number[]): void {
+  recreate(s, rng, { ...DEFAULT_SISR, blinkRate: 0 }, undefined, jobs);
 }
 
+/**
+ * Annealing temperature at `progress` (0..1) through one cycle: geometric from 5 to 0.05 times the
+ * cost of a typical short arc, so that the schedule scales with the problem's units (tuned on the
+ * invented farrier days and a few Solomon instances).
+ */
 export function annealTemperature(m: Model, progress: number): number {
-  const t0 = 1.0 * m.typicalArcCost, tf = 0.01 * m.typicalArcCost;
+  const t0 = 5 * m.typicalArcCost, tf = 0.05 * m.typicalArcCost;
   return t0 * Math.pow(tf / t0, Math.min(1, progress));
 }

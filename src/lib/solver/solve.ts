@@ -3,7 +3,7 @@ import { impossibleReason, type UnplannedReason } from './diagnose';
 import { localSearch } from './moves';
 import { createRng, type Rng } from './random';
 import { evalRoute } from './route-eval';
-import { annealTemperature, DEFAULT_SISR, greedyConstruct, recreate, regretConstruct, ruin } from './sisr';
+import { annealTemperature, DEFAULT_SISR, greedyConstruct, recreate, recreateCandidates, regretConstruct, ruin, ruinAround } from './sisr';
 import { State } from './state';
 import type { Problem } from './problem';
 
@@ -114,8 +114,16 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
     return false;
   };
 
+  // jobs no farrier could do even alone are never offered to the search again
+  const hopeless = new Uint8Array(m.nJobs);
+  const reasons = new Map<number, UnplannedReason>();
+  for (let j = 0; j < m.nJobs; j++) {
+    const why = impossibleReason(m, j);
+    if (why) { hopeless[j] = 1; reasons.set(j, why); }
+  }
   let best = new State(m);
-  if (m.nJobs <= 400) regretConstruct(best, rng); else greedyConstruct(best, rng);
+  const open = [...best.unassigned].filter((j) => !hopeless[j]);
+  if (m.nJobs <= 400) regretConstruct(best, rng, open); else greedyConstruct(best, rng, open);
   const firstFeasibleSeconds = now() - t0;
   localSearch(best, rng);
   progress('construct', best, true);
@@ -129,7 +137,9 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
       iterations += r.iterations;
     }
     let cur = best.clone();
-    const cycle = Math.max(2000, 300 * m.nJobs);
+    // annealing restarts from the best plan every `cycle` iterations, so a run of any length ends
+    // its cycles at low temperature without the schedule ever reading the clock
+    const cycle = Math.max(2000, 100 * m.nJobs);
     let sinceBest = 0;
     const eps = 1e-9 * Math.max(1, m.typicalArcCost);
     while ((stopReason as string) !== 'cancelled') {
@@ -140,15 +150,16 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
       if (phasePos === 0 && iterations > 0) cur = best.clone();
       const T = annealTemperature(m, phasePos / cycle);
       const cand = cur.clone();
-      ruin(cand, rng, DEFAULT_SISR);
-      recreate(cand, rng, DEFAULT_SISR);
+      const { removed, seed } = ruinAround(cand, rng, DEFAULT_SISR);
+      recreate(cand, rng, DEFAULT_SISR, undefined, recreateCandidates(cand, rng, removed, seed, hopeless));
       iterations++;
       sinceBest++;
       if (cand.cost < cur.cost - T * Math.log(1 - rng.next() + 1e-300)) {
         cur = cand;
         if (cand.cost < best.cost - eps) {
+          const focus = new Set(cand.touched);
           const polished = cand.clone();
-          localSearch(polished, rng);
+          localSearch(polished, rng, 15, 50, focus);
           best = polished;
           if (polished.cost < cur.cost) cur = polished.clone();
           improvements++;
@@ -159,7 +170,7 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
     }
   }
   progress('improve', best, true);
-  return buildResult(m, best, {
+  return buildResult(m, best, reasons, {
     iterations, seconds: now() - t0, firstFeasibleSeconds, improvements, farriersUsed: best.usedRoutes(), stopReason, seed: opts.seed,
   });
 }
@@ -218,10 +229,10 @@ function reportedCost(m: Model, s: State): number {
 }
 
 /** Turns a search state into the public result, with stop times re-derived by the exact evaluator. */
-export function buildResult(m: Model, s: State, statistics: SolveResult['statistics']): SolveResult {
+export function buildResult(m: Model, s: State, reasons: Map<number, UnplannedReason>, statistics: SolveResult['statistics']): SolveResult {
   const p = m.problem;
   const routes: PlannedRoute[] = s.routes.map((seq, f) => routeDetails(m, f, seq));
-  const unplanned = [...s.unassigned].sort((a, b) => a - b).map((j) => ({ jobId: p.jobs[j].id, reason: impossibleReason(m, j) ?? ('no_room' as const) }));
+  const unplanned = [...s.unassigned].sort((a, b) => a - b).map((j) => ({ jobId: p.jobs[j].id, reason: reasons.get(j) ?? ('no_room' as const) }));
   return { routes, unplanned, cost: reportedCost(m, s), statistics };
 }
 

@@ -1,5 +1,16 @@
-import { earliestIn, latestIn, type Model } from './model';
+import type { Model } from './model';
 import { evalRoute, type RouteEval } from './route-eval';
+
+// Local copies of the window look-ups: this is the hottest code in the engine, and a cross-module
+// call goes through a binding getter once transpiled.
+function earliestIn(w: Float64Array, t: number): number {
+  for (let k = 0; k < w.length; k += 2) if (t <= w[k + 1]) return t < w[k] ? w[k] : t;
+  return Infinity;
+}
+function latestIn(w: Float64Array, t: number): number {
+  for (let k = w.length - 2; k >= 0; k -= 2) if (t >= w[k]) return t > w[k + 1] ? w[k + 1] : t;
+  return -Infinity;
+}
 
 /**
  * A plan under search: one job sequence per farrier plus the left-out jobs. Each route keeps
@@ -16,6 +27,8 @@ export class State {
   routeOf: Int32Array;
   unassigned: Set<number>;
   cost = 0;
+  /** Routes refreshed since this state was cloned (the part a search step changed). */
+  touched = new Set<number>();
 
   constructor(readonly m: Model) {
     this.routes = Array.from({ length: m.nFarriers }, () => []);
@@ -37,6 +50,7 @@ export class State {
     s.routeOf = this.routeOf.slice();
     s.unassigned = new Set(this.unassigned);
     s.cost = this.cost;
+    s.touched = new Set();
     return s;
   }
 
@@ -77,6 +91,7 @@ export class State {
     this.ready[f] = ready;
     this.latest[f] = latest;
     this.evals[f] = evalRoute(m, f, r);
+    this.touched.add(f);
   }
 
   refreshAll(): void {
@@ -121,10 +136,34 @@ export class State {
   }
 
   /**
-   * Cost change of inserting job j into route f at position p, or Infinity when infeasible.
-   * Constant time from the caches; when the model needs exact checks the candidate is re-evaluated.
+   * Cheapest position for job j in route f (skipping each position with probability `blink`), or
+   * delta Infinity. Stops scanning once the farrier is free only after j's last window has closed:
+   * ready times never decrease along a route, so no later position can work.
    */
-  insertionDelta(j: number, f: number, p: number): number {
+  bestPosition(j: number, f: number, blink: number, rnd: () => number, bound = Infinity): { delta: number; pos: number } {
+    const m = this.m;
+    let best = bound, pos = -1;
+    if (!m.eligible[f * m.nJobs + j] || this.evals[f].load + m.demand[j] > m.capacity[f]) return { delta: best, pos };
+    const w = m.windows[j];
+    if (w.length === 0) return { delta: best, pos };
+    const lastEnd = w[w.length - 1];
+    const r = this.routes[f], ready = this.ready[f];
+    for (let p = 0; p <= r.length; p++) {
+      if (p > 0 && ready[p - 1] > lastEnd) break;
+      if (blink > 0 && rnd() < blink) continue;
+      const d = this.insertionDelta(j, f, p, best);
+      if (d < best) { best = d; pos = p; }
+    }
+    return pos < 0 ? { delta: Infinity, pos } : { delta: best, pos };
+  }
+
+  /**
+   * Cost change of inserting job j into route f at position p, or Infinity when infeasible.
+   * Constant time from the caches; when the model needs exact checks the candidate is re-evaluated,
+   * unless its drive-and-distance change alone already reaches `bound` (the best found so far):
+   * overtime and breaks almost never make an insertion cheaper than its added driving.
+   */
+  insertionDelta(j: number, f: number, p: number, bound = Infinity): number {
     const m = this.m, N = m.nJobs;
     if (!m.eligible[f * N + j]) return Infinity;
     const r = this.routes[f], n = r.length;
@@ -158,6 +197,7 @@ export class State {
       }
     }
     if (m.needsExact) {
+      if (m.cDrive[f] * dT + m.cMetre[f] * dM + (n === 0 ? m.fixedCost[f] : 0) >= bound) return Infinity;
       const seq = r.slice();
       seq.splice(p, 0, j);
       const e = evalRoute(m, f, seq);
