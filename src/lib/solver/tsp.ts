@@ -4,7 +4,8 @@ import { createRng } from './random';
  * Single-vehicle tour engine: 2-opt and Or-opt (segments of 1–3, both orientations) with nearest-
  * neighbour candidate lists and don't-look bits, inside iterated local search with double-bridge
  * kicks (the classic Lin–Kernighan-style recipe, from memory: Johnson & McGeoch's survey of local
- * search for the TSP). Used for one-farrier days with no time windows and for the TSPLIB benchmark.
+ * search for the TSP). Used by the TSPLIB benchmark; solve() does not call it (farrier days have
+ * time windows and go through the routing search).
  */
 export interface TspOptions {
   seed: number;
