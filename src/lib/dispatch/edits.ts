@@ -51,7 +51,8 @@ function mergeNeighbours(stops: EditStop[]): EditStop[] {
 /**
  * Applies moves in order. A move to a farrier without `position` joins that route's stop at the job's
  * barn if there is one, else becomes a new last stop. With `position` (1-based) the job goes in front of
- * the stop now at that position, or joins it when it is at the same barn; a position past the end appends.
+ * the stop now at that position, or joins it (last) when it is at the same barn; a position past the end
+ * appends. Moving a whole stop is its jobs taken off, then placed: removals first keep positions exact.
  * `toFarrierId` null takes the job off the plan.
  */
 export function applyMoves(start: EditRoutes, moves: readonly Move[], barnOf: (jobId: number) => number): EditResult {
@@ -86,7 +87,7 @@ export function applyMoves(start: EditRoutes, moves: readonly Move[], barnOf: (j
     } else {
       const at = Math.min(move.position - 1, stops.length);
       const there = stops[at];
-      if (there && there.barnId === barnId) there.jobIds.unshift(move.jobId);
+      if (there && there.barnId === barnId) there.jobIds.push(move.jobId);
       else stops.splice(at, 0, { barnId, jobIds: [move.jobId] });
     }
     routes.set(move.toFarrierId, mergeNeighbours(stops));

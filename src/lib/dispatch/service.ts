@@ -211,7 +211,7 @@ export async function editPlan(knex: Knex, practice: Practice, actor: Actor, pla
       if (m.toFarrierId !== null && !routes.has(m.toFarrierId)) {
         throw badRequest('That farrier has no route in this plan', { [`moves.${i}.toFarrierId`]: `Farrier ${m.toFarrierId} has no route on ${plan.date}` });
       }
-      if (m.pin && m.toFarrierId === null) throw badRequest('Cannot pin a job that is taken off the plan', { [`moves.${i}.pin`]: 'Pin needs a farrier' });
+      if (m.pin === true && m.toFarrierId === null) throw badRequest('Cannot pin a job that is taken off the plan', { [`moves.${i}.pin`]: 'Pin needs a farrier' });
     });
     const edit = applyMoves(routes, input.moves, (jobId) => byId.get(jobId)!.barnId);
 
@@ -220,11 +220,15 @@ export async function editPlan(knex: Knex, practice: Practice, actor: Actor, pla
     const farriers = (await listDayFarriers(trx, practice.id, { includeArchived: true })).filter((f) => touched.includes(f.id));
     const touchedJobIds = touched.flatMap((f) => (edit.routes.get(f) ?? []).flatMap((s) => s.jobIds));
     // Pins as they will be after this edit, so the checker judges the new pins.
-    for (const m of input.moves) {
+    // Pins follow each job's last move: pin true pins there, false or off the plan unpins, otherwise a pin travels with the job.
+    const lastMove = new Map(input.moves.map((m) => [m.jobId, m]));
+    const pinnedBefore = new Map(moveJobs.map((j) => [j.id, j.pinnedFarrierId]));
+    for (const m of lastMove.values()) {
       const job = byId.get(m.jobId)!;
-      if (m.pin === true) { job.pinnedFarrierId = m.toFarrierId; job.pinnedPosition = m.position ?? null; }
-      else if (m.pin === false || m.toFarrierId === null) { job.pinnedFarrierId = null; job.pinnedPosition = null; }
-      else if (job.pinnedFarrierId != null) job.pinnedFarrierId = m.toFarrierId;
+      const pinSet = input.moves.some((x) => x.jobId === m.jobId && x.pin === true) && m.pin !== false;
+      if (m.toFarrierId === null || m.pin === false) { job.pinnedFarrierId = null; job.pinnedPosition = null; }
+      else if (m.pin === true || pinSet) { job.pinnedFarrierId = m.toFarrierId; job.pinnedPosition = m.position ?? null; }
+      else if (pinnedBefore.get(m.jobId) != null) job.pinnedFarrierId = m.toFarrierId;
     }
     const others = await listDayJobs(trx, practice.id, { ids: touchedJobIds.filter((id) => !byId.has(id)) });
     const dayJobs = [...others, ...moveJobs.filter((j) => touchedJobIds.includes(j.id))];
@@ -235,7 +239,7 @@ export async function editPlan(knex: Knex, practice: Practice, actor: Actor, pla
     const retimeMs = performance.now() - t0;
 
     await replaceRoutes(trx, practice.id, planId, writes);
-    for (const m of input.moves) {
+    for (const m of lastMove.values()) {
       const job = byId.get(m.jobId)!;
       await setJobPin(trx, practice.id, m.jobId, { farrierId: job.pinnedFarrierId, position: job.pinnedPosition });
     }

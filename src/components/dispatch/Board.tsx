@@ -1,0 +1,263 @@
+/**
+ * The dispatch board: one lane per farrier plus the unplanned lane. Stops (and single jobs) are dragged
+ * with dnd-kit, by mouse or keyboard (focus a card, Space to lift, arrow keys to move, Space to drop).
+ * A drop becomes moves for the plans API; the server re-times and answers, nothing moves on its own.
+ */
+import { memo, useMemo, useState } from 'react';
+import {
+  DndContext, DragOverlay, KeyboardSensor, PointerSensor, closestCenter, useDroppable, useSensor, useSensors,
+  type DragEndEvent, type DragStartEvent,
+} from '@dnd-kit/core';
+import { SortableContext, sortableKeyboardCoordinates, useSortable, verticalListSortingStrategy } from '@dnd-kit/sortable';
+import { CSS } from '@dnd-kit/utilities';
+import type { Move, PlanJobView, PlanRouteView, PlanStopView, UnplannedView } from '../../schemas/plans.ts';
+
+const clock = (iso: string) => iso.slice(11, 16);
+const hm = (minutes: number) => (minutes < 60 ? `${minutes} min` : `${Math.floor(minutes / 60)} h ${String(minutes % 60).padStart(2, '0')}`);
+const unitWord = (units: 'miles' | 'km') => (units === 'miles' ? 'mi' : 'km');
+
+export interface BoardProps {
+  routes: PlanRouteView[];
+  unplanned: UnplannedView[];
+  units: 'miles' | 'km';
+  selectedBarnId: number | null;
+  onSelectBarn: (barnId: number | null) => void;
+  onMoves: (moves: Move[]) => void;
+  busy: boolean;
+}
+
+type DragItem = { kind: 'stop'; stop: PlanStopView; farrierId: number } | { kind: 'job'; job: PlanJobView; barnName: string; farrierId: number | null };
+
+/** Moves for dropping a whole stop: its jobs taken off first, then placed, so positions stay exact. */
+function stopMoves(stop: PlanStopView, toFarrierId: number | null, position?: number): Move[] {
+  const ids = stop.jobs.map((j) => j.id);
+  if (toFarrierId === null) return ids.map((jobId) => ({ jobId, toFarrierId: null }));
+  return [
+    ...ids.map((jobId) => ({ jobId, toFarrierId: null })),
+    ...ids.map((jobId) => (position === undefined ? { jobId, toFarrierId } : { jobId, toFarrierId, position })),
+  ];
+}
+
+export default function Board({ routes, unplanned, units, selectedBarnId, onSelectBarn, onMoves, busy }: BoardProps) {
+  const sensors = useSensors(
+    useSensor(PointerSensor, { activationConstraint: { distance: 6 } }),
+    useSensor(KeyboardSensor, { coordinateGetter: sortableKeyboardCoordinates }),
+  );
+  const [active, setActive] = useState<DragItem | null>(null);
+
+  const index = useMemo(() => {
+    const stops = new Map<string, { stop: PlanStopView; farrierId: number; index: number }>();
+    const jobs = new Map<string, DragItem>();
+    for (const r of routes) {
+      r.stops.forEach((s, i) => {
+        stops.set(`stop:${s.id}`, { stop: s, farrierId: r.farrierId, index: i });
+        for (const j of s.jobs) jobs.set(`job:${j.id}`, { kind: 'job', job: j, barnName: s.barnName, farrierId: r.farrierId });
+      });
+    }
+    for (const u of unplanned) jobs.set(`job:${u.jobId}`, { kind: 'job', job: u.job, barnName: u.barnName, farrierId: null });
+    return { stops, jobs };
+  }, [routes, unplanned]);
+
+  const itemOf = (id: string): DragItem | null => {
+    const s = index.stops.get(id);
+    if (s) return { kind: 'stop', stop: s.stop, farrierId: s.farrierId };
+    return index.jobs.get(id) ?? null;
+  };
+
+  const onDragStart = (e: DragStartEvent) => setActive(itemOf(String(e.active.id)));
+  const onDragEnd = (e: DragEndEvent) => {
+    setActive(null);
+    const item = itemOf(String(e.active.id));
+    const overId = e.over ? String(e.over.id) : null;
+    if (!item || !overId || overId === String(e.active.id)) return;
+    // Where it landed: a lane (append), a stop card (in front of it, or its place when reordering), or the unplanned lane.
+    let toFarrierId: number | null;
+    let position: number | undefined;
+    if (overId === 'lane:unplanned' || (overId.startsWith('job:') && index.jobs.get(overId)?.farrierId === null)) toFarrierId = null;
+    else if (overId.startsWith('lane:')) toFarrierId = Number(overId.slice(5));
+    else if (overId.startsWith('stop:')) {
+      const target = index.stops.get(overId)!;
+      toFarrierId = target.farrierId;
+      position = target.index + 1;
+    } else return;
+    if (item.kind === 'stop') {
+      if (toFarrierId === item.farrierId && position === undefined) return;
+      onMoves(stopMoves(item.stop, toFarrierId, position));
+    } else {
+      if (toFarrierId === item.farrierId && position === undefined) return;
+      onMoves([position === undefined ? { jobId: item.job.id, toFarrierId } : { jobId: item.job.id, toFarrierId, position }]);
+    }
+  };
+
+  return (
+    <DndContext sensors={sensors} collisionDetection={closestCenter} onDragStart={onDragStart} onDragEnd={onDragEnd} onDragCancel={() => setActive(null)}>
+      <div className={`flex gap-3 overflow-x-auto pb-3 ${busy ? 'opacity-70' : ''}`} data-testid="board">
+        {routes.map((r) => (
+          <Lane key={r.farrierId} route={r} units={units} selectedBarnId={selectedBarnId} onSelectBarn={onSelectBarn} onMoves={onMoves} />
+        ))}
+        <UnplannedLane items={unplanned} selectedBarnId={selectedBarnId} onSelectBarn={onSelectBarn} />
+      </div>
+      <DragOverlay dropAnimation={null}>
+        {active?.kind === 'stop' ? (
+          <div className="w-64 rounded-lg border-2 border-ember-400 bg-white p-2 text-sm shadow-lg">
+            <span className="figure">{clock(active.stop.arrival)}</span> {active.stop.barnName} · {active.stop.jobs.length} {active.stop.jobs.length === 1 ? 'horse' : 'horses'}
+          </div>
+        ) : active?.kind === 'job' ? (
+          <div className="w-60 rounded-md border-2 border-ember-400 bg-white px-2 py-1 text-sm shadow-lg">{active.job.horseName} · {active.barnName}</div>
+        ) : null}
+      </DragOverlay>
+    </DndContext>
+  );
+}
+
+const Lane = memo(function Lane({ route, units, selectedBarnId, onSelectBarn, onMoves }: { route: PlanRouteView; units: 'miles' | 'km'; selectedBarnId: number | null; onSelectBarn: (id: number | null) => void; onMoves: (m: Move[]) => void }) {
+  const { setNodeRef, isOver } = useDroppable({ id: `lane:${route.farrierId}` });
+  const empty = route.stops.length === 0;
+  const laneWarnings = route.warnings;
+  return (
+    <section ref={setNodeRef} className={`flex w-72 shrink-0 flex-col rounded-xl border bg-white shadow-sm ${isOver ? 'border-ember-400 ring-2 ring-ember-100' : 'border-slateblue-100'}`} data-lane={route.farrierId} aria-label={`Route of ${route.farrierName}`}>
+      <header className="rounded-t-xl border-b border-slateblue-100 px-3 py-2" style={{ borderTop: `4px solid ${route.colour}` }}>
+        <div className="flex items-center justify-between gap-2">
+          <h3 className="truncate text-sm font-semibold">{route.farrierName}</h3>
+          <span className="flex gap-1 text-[10px] font-semibold uppercase tracking-wide text-slateblue-500">
+            {route.qualified && <span title="Qualified for therapeutic work">Thera</span>}
+            {route.hasForge ? <span title="Truck has a forge">Forge</span> : <span className="text-ember-700" title="No forge on this truck">No forge</span>}
+            {route.apprentice && <span>Apprentice</span>}
+          </span>
+        </div>
+        {empty ? (
+          <p className="mt-1 text-xs text-slateblue-500">No stops: drop work here</p>
+        ) : (
+          <dl className="mt-1 grid grid-cols-3 gap-x-2 gap-y-0.5 text-[11px] text-slateblue-600" data-testid="lane-figures">
+            <div><dt className="sr-only">Day</dt><dd className="figure text-slateblue-900">{clock(route.start)}–{clock(route.end)}</dd></div>
+            <div><dt className="sr-only">Drive</dt><dd className="figure">{hm(route.driveMinutes)} drive</dd></div>
+            <div><dt className="sr-only">Distance</dt><dd className="figure">{route.distance.toFixed(1)} {unitWord(units)}</dd></div>
+            <div><dt className="sr-only">Horses</dt><dd className="figure">{route.horses} horses</dd></div>
+            <div><dt className="sr-only">Stops</dt><dd className="figure">{route.stops.length} stops</dd></div>
+            <div><dt className="sr-only">Overtime</dt><dd className={`figure ${route.overtimeMinutes > 0 ? 'font-semibold text-ember-700' : ''}`}>{route.overtimeMinutes > 0 ? `+${route.overtimeMinutes} min OT` : 'no OT'}</dd></div>
+          </dl>
+        )}
+        {laneWarnings.map((w, i) => (
+          <p key={i} className="mt-1 rounded bg-ember-50 px-2 py-1 text-xs font-medium text-ember-800" data-warning={w.code}>{w.message}</p>
+        ))}
+        {route.cautions.map((c) => (
+          <p key={c} className="mt-1 text-[11px] text-slateblue-500">⚠ {c}</p>
+        ))}
+      </header>
+      <SortableContext id={`lane:${route.farrierId}`} items={route.stops.map((s) => `stop:${s.id}`)} strategy={verticalListSortingStrategy}>
+        <ol className="flex min-h-24 flex-1 flex-col gap-2 p-2">
+          {route.stops.map((s) => (
+            <StopCard key={s.id} stop={s} farrierId={route.farrierId} units={units} selected={selectedBarnId === s.barnId} onSelectBarn={onSelectBarn} onMoves={onMoves} />
+          ))}
+        </ol>
+      </SortableContext>
+    </section>
+  );
+});
+
+const StopCard = memo(function StopCard({ stop, farrierId, units, selected, onSelectBarn, onMoves }: { stop: PlanStopView; farrierId: number; units: 'miles' | 'km'; selected: boolean; onSelectBarn: (id: number | null) => void; onMoves: (m: Move[]) => void }) {
+  const { attributes, listeners, setNodeRef, transform, transition, isDragging } = useSortable({ id: `stop:${stop.id}` });
+  const pinned = stop.jobs.length > 0 && stop.jobs.every((j) => j.pinned);
+  const style = { transform: CSS.Translate.toString(transform), transition };
+  const cautions = [...new Set(stop.jobs.flatMap((j) => j.cautions))];
+  return (
+    <li
+      ref={setNodeRef}
+      style={style}
+      {...attributes}
+      {...listeners}
+      onClick={() => onSelectBarn(selected ? null : stop.barnId)}
+      className={`cursor-grab rounded-lg border bg-white p-2 text-sm outline-none focus-visible:ring-2 focus-visible:ring-ember-400 ${selected ? 'border-ember-500 ring-2 ring-ember-200' : 'border-slateblue-200'} ${stop.warnings.length ? 'border-l-4 border-l-ember-600' : ''} ${isDragging ? 'opacity-40' : ''}`}
+      data-stop={stop.id}
+      data-barn={stop.barnId}
+      aria-label={`Stop ${stop.position}: ${stop.barnName}, arrival ${clock(stop.arrival)}`}
+    >
+      <div className="flex items-baseline justify-between gap-2">
+        <span className="figure text-base font-medium text-slateblue-900">{clock(stop.arrival)}</span>
+        <span className="figure text-[11px] text-slateblue-500" title="Drive into this stop">{stop.legDriveMinutes} min · {stop.legDistance.toFixed(1)} {unitWord(units)}</span>
+      </div>
+      <p className="truncate font-semibold">{stop.barnName}</p>
+      {stop.window && <p className="figure text-[11px] text-slateblue-500">owner window {clock(stop.window.start)}–{clock(stop.window.end)}</p>}
+      <ul className="mt-1 space-y-0.5">
+        {stop.jobs.map((j) => (
+          <JobLine key={j.id} job={j} />
+        ))}
+      </ul>
+      <div className="mt-1 flex items-center justify-between text-[11px] text-slateblue-500">
+        <span className="figure">{stop.minutes} min on site · away {clock(stop.departure)}</span>
+        <button
+          type="button"
+          className={`rounded px-1.5 py-0.5 font-semibold ${pinned ? 'bg-slateblue-800 text-white' : 'text-slateblue-600 hover:bg-slateblue-100'}`}
+          onPointerDown={(e) => e.stopPropagation()}
+          onKeyDown={(e) => e.stopPropagation()}
+          onClick={(e) => {
+            e.stopPropagation();
+            onMoves(stop.jobs.map((j) => ({ jobId: j.id, toFarrierId: farrierId, position: stop.position, pin: !pinned })));
+          }}
+          aria-pressed={pinned}
+          title={pinned ? 'Pinned: re-planning keeps this stop with this farrier' : 'Pin to this farrier'}
+        >
+          {pinned ? 'Pinned' : 'Pin'}
+        </button>
+      </div>
+      {stop.warnings.map((w, i) => (
+        <p key={i} className="mt-1 rounded bg-ember-50 px-2 py-1 text-xs font-medium text-ember-800" data-warning={w.code}>{w.message}</p>
+      ))}
+      {cautions.length > 0 && <p className="mt-1 text-[11px] leading-snug text-slateblue-500">⚠ {cautions.join(' · ')}</p>}
+    </li>
+  );
+});
+
+function JobLine({ job }: { job: PlanJobView }) {
+  return (
+    <li className="flex items-baseline justify-between gap-2 text-xs">
+      <span className="truncate">
+        <span className="font-medium">{job.horseName}</span> <span className="text-slateblue-500">{job.workTypes.join(', ')}</span>
+        {job.lame && <span className="ml-1 font-semibold text-ember-700">lame</span>}
+      </span>
+      <span className="figure shrink-0 text-slateblue-500">{job.minutes}m</span>
+    </li>
+  );
+}
+
+const UnplannedLane = memo(function UnplannedLane({ items, selectedBarnId, onSelectBarn }: { items: UnplannedView[]; selectedBarnId: number | null; onSelectBarn: (id: number | null) => void }) {
+  const { setNodeRef, isOver } = useDroppable({ id: 'lane:unplanned' });
+  return (
+    <section ref={setNodeRef} className={`flex w-72 shrink-0 flex-col rounded-xl border bg-hay-50 ${isOver ? 'border-ember-400 ring-2 ring-ember-100' : 'border-hay-300'}`} data-lane="unplanned" aria-label="Unplanned jobs">
+      <header className="border-b border-hay-200 px-3 py-2">
+        <h3 className="text-sm font-semibold">Unplanned <span className="figure text-slateblue-500">{items.length}</span></h3>
+        <p className="text-[11px] text-slateblue-500">Drag onto a farrier to plan; each shows why it was left out.</p>
+      </header>
+      <SortableContext id="lane:unplanned" items={items.map((u) => `job:${u.jobId}`)} strategy={verticalListSortingStrategy}>
+        <ol className="flex max-h-[70vh] min-h-24 flex-col gap-1.5 overflow-y-auto p-2">
+          {items.map((u) => (
+            <UnplannedCard key={u.jobId} item={u} selected={selectedBarnId === u.barnId} onSelectBarn={onSelectBarn} />
+          ))}
+        </ol>
+      </SortableContext>
+    </section>
+  );
+});
+
+function UnplannedCard({ item, selected, onSelectBarn }: { item: UnplannedView; selected: boolean; onSelectBarn: (id: number | null) => void }) {
+  const { attributes, listeners, setNodeRef, transform, transition, isDragging } = useSortable({ id: `job:${item.jobId}` });
+  return (
+    <li
+      ref={setNodeRef}
+      style={{ transform: CSS.Translate.toString(transform), transition }}
+      {...attributes}
+      {...listeners}
+      onClick={() => onSelectBarn(selected ? null : item.barnId)}
+      className={`cursor-grab rounded-md border bg-white px-2 py-1.5 text-xs outline-none focus-visible:ring-2 focus-visible:ring-ember-400 ${selected ? 'border-ember-500 ring-2 ring-ember-200' : 'border-hay-200'} ${isDragging ? 'opacity-40' : ''}`}
+      data-job={item.jobId}
+      data-barn={item.barnId}
+    >
+      <div className="flex justify-between gap-2">
+        <span className="truncate font-semibold">{item.job.horseName}{item.job.lame && <span className="ml-1 text-ember-700">lame</span>}</span>
+        <span className="figure shrink-0 text-slateblue-500">due {item.job.dueOn.slice(5)}</span>
+      </div>
+      <p className="truncate text-slateblue-600">{item.barnName} · {item.job.workTypes.join(', ')} · <span className="figure">{item.job.minutes}m</span></p>
+      <p className="text-[11px] text-slateblue-500">{item.reasonText}</p>
+    </li>
+  );
+}
