@@ -69,7 +69,7 @@ export default function DayMap({ colour, home, stops, line }: Props) {
         minZoom={8}
         maxZoom={17}
         onLoad={() => setLoaded(true)}
-        attributionControl={{ compact: true }}
+        attributionControl={false}
         style={{ width: '100%', height: '100%' }}
       >
         <Source id="rs-routes" type="geojson" data={routeData}>
@@ -84,6 +84,7 @@ export default function DayMap({ colour, home, stops, line }: Props) {
           <Layer {...numbersLayer} />
         </Source>
       </Map>
+      <p className="pointer-events-none absolute bottom-1 right-2 rounded bg-white/80 px-1 text-[10px] text-slateblue-600">Map data: the practice region · Roundsmith</p>
     </div>
   );
 }

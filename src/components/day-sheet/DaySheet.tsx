@@ -26,7 +26,7 @@ function clock(iso: string | number, timeZone: string): string {
 function duration(sec: number): string {
   const min = Math.round(sec / 60);
   if (min < 60) return `${min} min`;
-  return `${Math.floor(min / 60)} h ${String(min % 60).padStart(2, '0')}`;
+  return `${Math.floor(min / 60)} h ${String(min % 60).padStart(2, '0')} min`;
 }
 
 function distance(m: number, units: 'miles' | 'km'): string {
@@ -219,7 +219,7 @@ export default function DaySheet({ sheet, timeZone, units, canMark, skipReasons 
                 {m?.state === 'done' && <p className="mt-1 text-base font-semibold text-[#2f7d4f]">Done {m.departedMs ? <span className="figure">{clock(m.departedMs, timeZone)}</span> : null}</p>}
                 {m?.state === 'arrived' && <p className="mt-1 text-base font-semibold text-hay-500">Arrived <span className="figure">{m.arrivedMs ? clock(m.arrivedMs, timeZone) : ''}</span></p>}
                 {m?.state === 'skipped' && <p className="mt-1 text-base font-semibold text-slateblue-600">Skipped: {m.skipReason}</p>}
-                {!m && est.basis === 'estimate' && Math.abs(late) >= 5 && (
+                {!m && est.basis === 'estimate' && Math.abs(late) >= 5 && Math.abs(late) < 720 && (
                   <p className="mt-1 text-base font-semibold text-ember-800" data-testid="expected">
                     Now expected <span className="figure">{clock(est.arrivalMs, timeZone)}</span> ({late > 0 ? `${late} min late` : `${-late} min early`})
                   </p>

@@ -1,0 +1,106 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Knex } from 'knex';
+import { APP_URL, hydrated, launch, screenshot, signIn } from './browser.ts';
+import { appDatabase } from '../integration/helpers/db.ts';
+import { publishedDay, fakeTextsTo, type PublishedDay } from '../integration/day-sheet/fixture.ts';
+import { queueArrivalTexts, sendDueMessages } from '../../src/lib/messaging/arrival-texts.ts';
+import { emailDaySheets } from '../../src/lib/messaging/day-sheet-mail.ts';
+import { sessionCookie, call } from '../integration/helpers/api.ts';
+
+// A published day of our own on 2027-07-13 for farrier4, published the evening before (22:00 EDT).
+const DATE = '2027-07-13';
+const PHONES = { consenting: '+13645550121', optedOut: '+13645550122', second: '+13645550123' };
+let knex: Knex;
+let day: PublishedDay;
+
+beforeAll(async () => {
+  knex = appDatabase();
+  day = await publishedDay(knex, {
+    date: DATE,
+    farrierEmail: 'farrier4@demo.test',
+    tag: 'Browsertest',
+    firstArrivalUtc: `${DATE}T12:20:00Z`,
+    owners: [
+      { name: 'Linnea Marchbank', phone: PHONES.consenting, consent: true, horses: [{ name: 'Pepper', work: ['Full set', 'Hot fit'], shoeSize: '1 all round', secondPerson: true, notes: 'Fidgets for the hinds; a haynet helps.' }, { name: 'Dill', work: ['Trim'] }] },
+      { name: 'Osric Penhallow', phone: PHONES.optedOut, consent: true, optedOut: true, horses: [{ name: 'Sage', work: ['Reset'] }] },
+      { name: 'Wren Castlemere', phone: PHONES.second, consent: true, horses: [{ name: 'Thistle', work: ['Therapeutic'] }] },
+    ],
+  });
+  // Dispatch's publish wires these same calls; here the plan rows are ours, so the test makes them.
+  await knex.transaction((trx) => queueArrivalTexts(trx, { practiceId: 1, planId: day.planId, userId: null }, new Date(`${DATE}T02:00:00Z`)));
+  await sendDueMessages(knex, new Date(`${DATE}T12:00:00Z`), { planId: day.planId });
+  await emailDaySheets(knex, { practiceId: 1, planId: day.planId });
+});
+afterAll(async () => {
+  await knex.destroy();
+});
+
+describe('the day sheet in a browser', () => {
+  it('publishing the day leaves one text per consenting owner stop in the fake inbox, none for the opted-out owner', async () => {
+    expect(await fakeTextsTo(PHONES.consenting)).toHaveLength(1);
+    expect(await fakeTextsTo(PHONES.second)).toHaveLength(1);
+    expect(await fakeTextsTo(PHONES.optedOut)).toHaveLength(0);
+    expect((await fakeTextsTo(PHONES.consenting))[0]!.body).toContain('Pepper and Dill');
+  });
+
+  it('a farrier on a phone opens the sheet, sees directions, marks the first stop done, offline marks follow on reconnect, and the dispatcher sees it', async () => {
+    const browser = await launch({ viewport: { width: 390, height: 844 }, isMobile: true });
+    try {
+      const { page, context } = browser;
+      await signIn(page, 'farrier4@demo.test');
+      await page.goto(`${APP_URL}/day/${DATE}`);
+      await hydrated(page);
+      const first = page.locator(`[data-stop-id="${day.stopIds[0]}"]`);
+      await expect(first.locator('details.directions ol li').first().textContent()).resolves.toMatch(/Set off|Turn|Bear|Keep|Go straight/);
+      await expect(first.textContent()).resolves.toContain('Hot fit: burns');
+      await page.waitForSelector('.day-map[data-map-ready="true"]', { timeout: 30_000 }).catch(() => undefined);
+      await screenshot(page, 'day-sheet-phone');
+
+      await first.getByRole('button', { name: 'Done' }).click();
+      await page.waitForFunction((id) => document.querySelector(`[data-stop-id="${id}"]`)?.getAttribute('data-state') === 'done', day.stopIds[0]);
+      await page.waitForFunction(() => document.querySelector('[data-testid="sync-status"]')?.textContent?.includes('all marks sent'));
+
+      // The connection drops: a mark stays queued on the phone, then goes once the signal is back.
+      await context.setOffline(true);
+      const second = page.locator(`[data-stop-id="${day.stopIds[1]}"]`);
+      await second.getByRole('button', { name: 'Arrived' }).click();
+      await page.waitForFunction(() => document.querySelector('[data-testid="sync-status"]')?.textContent?.includes('1 mark waiting'));
+      await screenshot(page, 'day-sheet-phone-offline');
+      expect(await knex('visit_logs').where({ stop_id: day.stopIds[1] })).toHaveLength(0);
+      await context.setOffline(false);
+      await page.evaluate(() => window.dispatchEvent(new Event('online')));
+      await page.waitForFunction(() => document.querySelector('[data-testid="sync-status"]')?.textContent?.includes('all marks sent'), undefined, { timeout: 30_000 });
+      // A reload replays nothing twice: still one visit log per stop.
+      await page.reload();
+      await hydrated(page);
+      expect(await knex('visit_logs').where({ stop_id: day.stopIds[1] })).toHaveLength(1);
+      expect(await knex('visit_logs').where({ stop_id: day.stopIds[0] })).toHaveLength(1);
+
+      await page.emulateMedia({ media: 'print' });
+      await page.screenshot({ path: '.data/screenshots/day-sheet-print.png', fullPage: true });
+      await page.emulateMedia({ media: 'screen' });
+    } finally {
+      await browser.close();
+    }
+
+    const progress = await call('GET', `/api/visits?date=${DATE}`, { cookie: await sessionCookie('dispatcher@demo.test') });
+    const route = progress.body.routes.find((r: { farrierId: number }) => r.farrierId === day.farrierId);
+    expect(route.stops[0].state).toBe('done');
+    expect(route.stops[1].state).toBe('arrived');
+  });
+
+  it('the dispatcher sees the texts on the Messages page', async () => {
+    const browser = await launch({ viewport: { width: 1280, height: 900 } });
+    try {
+      await signIn(browser.page, 'dispatcher@demo.test');
+      await browser.page.goto(`${APP_URL}/messages?date=${DATE}`);
+      await hydrated(browser.page);
+      const list = await browser.page.locator('[data-testid="message-list"]').textContent();
+      expect(list).toContain('Pepper and Dill');
+      expect(list).toContain('farrier4@demo.test');
+      await screenshot(browser.page, 'messages-page');
+    } finally {
+      await browser.close();
+    }
+  });
+});
