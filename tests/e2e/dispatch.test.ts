@@ -62,8 +62,11 @@ describe('the dispatcher plans a day in the browser', () => {
     const kBarn = await kCard.getAttribute('data-barn');
     await kCard.focus();
     const patch2 = page.waitForResponse((r) => r.request().method() === 'PATCH' && r.url().includes('/api/plans/'));
+    // dnd-kit settles the lifted card and the new drop target between key presses.
     await page.keyboard.press('Space');
+    await page.waitForTimeout(300);
     await page.keyboard.press('ArrowLeft');
+    await page.waitForTimeout(300);
     await page.keyboard.press('Space');
     const answer = await patch2;
     expect(answer.status()).toBe(200);

@@ -177,7 +177,7 @@ const StopCard = memo(function StopCard({ stop, farrierId, units, selected, onSe
         <span className="figure text-[11px] text-slateblue-500" title="Drive into this stop">{stop.legDriveMinutes} min · {stop.legDistance.toFixed(1)} {unitWord(units)}</span>
       </div>
       <p className="truncate font-semibold">{stop.barnName}</p>
-      {stop.window && <p className="figure text-[11px] text-slateblue-500">owner window {clock(stop.window.start)}–{clock(stop.window.end)}</p>}
+      {stop.window && <p className="figure text-[11px] text-slateblue-500">arrival window {clock(stop.window.start)}–{clock(stop.window.end)}</p>}
       <ul className="mt-1 space-y-0.5">
         {stop.jobs.map((j) => (
           <JobLine key={j.id} job={j} />
