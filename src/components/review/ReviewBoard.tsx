@@ -25,7 +25,8 @@ const DAYS = ['Sun', 'Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat'];
 const shortDate = (d: string) => `${Number(d.slice(8, 10))} ${MONTHS[Number(d.slice(5, 7)) - 1]}`;
 const dayLabel = (d: string) => `${DAYS[new Date(`${d}T00:00:00Z`).getUTCDay()]} ${shortDate(d)}`;
 const hours = (m: number) => Math.round((m / 60) * 100) / 100;
-const WEEK_SHADES = ['#324051', '#56708e', '#a2b3c6', '#d2a947', '#be2609', '#748ca8'];
+/** Weeks in order, light to dark, so a month reads left to right within each farrier. */
+const WEEK_SHADES = ['#e9d8a3', '#d2a947', '#a2b3c6', '#748ca8', '#445a76', '#1f2833'];
 
 function rangeOf(from: string, mode: ReviewMode, weekStart: number) {
   return mode === 'week' ? weekOf(from, weekStart) : monthOf(from);
@@ -61,7 +62,7 @@ function Review({ from: initialFrom, mode: initialMode, weekStart, today }: Prop
   const data = review.data;
 
   return (
-    <div className="space-y-6">
+    <div className="min-w-0 space-y-6">
       <div className="flex flex-wrap items-end gap-3">
         <div className="inline-flex overflow-hidden rounded-lg border border-slateblue-200 bg-white text-sm" role="group" aria-label="Range">
           {(['week', 'month'] as const).map((m) => (
@@ -100,6 +101,9 @@ function ReviewBody({ data, mode, farrierId, onFarrier }: { data: ReviewResult; 
   const unit = data.units === 'miles' ? 'mi' : 'km';
   const money = (v: number) => new Intl.NumberFormat('en-US', { style: 'currency', currency: data.currency }).format(v);
   const t = data.totals;
+  useEffect(() => {
+    if (farrierId != null) document.querySelector('[data-testid=farrier-days]')?.scrollIntoView({ behavior: 'smooth', block: 'start' });
+  }, [farrierId]);
   const names = new Map(data.farriers.map((f) => [f.farrierId, f]));
   const thresholdH = data.rule.weeklyMinutes / 60;
 
@@ -145,10 +149,10 @@ function ReviewBody({ data, mode, farrierId, onFarrier }: { data: ReviewResult; 
         Overtime rule: <span className="figure">{ruleText(data)}</span>; weeks stand alone. Change it in <a className="underline" href="/settings">Settings</a>.
       </p>
 
-      <div className="grid gap-6 xl:grid-cols-2">
-        <section className="card p-4" aria-label="Hours against the overtime line">
+      <div className="grid grid-cols-1 gap-6 xl:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
+        <section className="card min-w-0 p-4" aria-label="Hours against the overtime line">
           <h2>Hours per farrier {mode === 'month' ? 'per week' : ''}</h2>
-          <p className="mb-2 text-xs text-slateblue-500">Bars: working hours{mode === 'week' ? ', planned and actual' : ' each week (actual)'}; the line is the weekly overtime threshold. Click a farrier for their days.</p>
+          <p className="mb-2 text-xs text-slateblue-500">Bars: working hours{mode === 'week' ? ', planned and actual' : ' each week (actual; weeks that overlap the month are shown whole)'}; the line is the weekly overtime threshold. Click a farrier for their days.</p>
           <div className="h-72" data-testid="hours-chart">
             <ResponsiveContainer width="100%" height="100%">
               <BarChart data={hoursData} margin={{ top: 16, right: 12, bottom: 0, left: 0 }}>
@@ -157,7 +161,7 @@ function ReviewBody({ data, mode, farrierId, onFarrier }: { data: ReviewResult; 
                 <YAxis unit=" h" tick={{ fontSize: 11, fontFamily: 'Roboto Mono' }} width={52}
                   domain={[0, (dataMax: number) => Math.ceil(Math.max(dataMax, thresholdH * 1.1) / 4) * 4]} allowDecimals={false} />
                 <Tooltip formatter={(v) => formatMinutes(Math.round(Number(v) * 60))} />
-                <Legend wrapperStyle={{ fontSize: 12 }} />
+                <Legend wrapperStyle={{ fontSize: 12 }} itemSorter="dataKey" formatter={(value) => <span style={{ color: '#324051' }}>{value}</span>} />
                 {mode === 'week' ? (
                   <>
                     <Bar dataKey="planned" name="Planned" fill="#c9d3de" onClick={clickFarrier} cursor="pointer" />
@@ -177,7 +181,7 @@ function ReviewBody({ data, mode, farrierId, onFarrier }: { data: ReviewResult; 
           </div>
         </section>
 
-        <section className="card p-4" aria-label="Distance per day">
+        <section className="card min-w-0 p-4" aria-label="Distance per day">
           <h2>Distance per day ({unit})</h2>
           <p className="mb-2 text-xs text-slateblue-500">Bars: actual distance per farrier; the line is the planned total. Click a day to open its plan and actuals.</p>
           <div className="h-72" data-testid="distance-chart">
@@ -193,7 +197,7 @@ function ReviewBody({ data, mode, farrierId, onFarrier }: { data: ReviewResult; 
                 <XAxis dataKey="label" tick={{ fontSize: 11 }} interval={mode === 'week' ? 0 : 'preserveStartEnd'} />
                 <YAxis tick={{ fontSize: 11, fontFamily: 'Roboto Mono' }} width={48} />
                 <Tooltip formatter={(v) => `${Number(v).toFixed(1)} ${unit}`} />
-                <Legend wrapperStyle={{ fontSize: 12 }} />
+                <Legend wrapperStyle={{ fontSize: 12 }} itemSorter="dataKey" formatter={(value) => <span style={{ color: '#324051' }}>{value}</span>} />
                 {data.farriers.map((f) => (
                   <Bar key={f.farrierId} dataKey={`f${f.farrierId}`} name={f.name.split(' ')[0]} stackId="actual" fill={f.colour} cursor="pointer" />
                 ))}
