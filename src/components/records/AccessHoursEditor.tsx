@@ -16,9 +16,9 @@ export default function AccessHoursEditor({ value, onChange, errors }: { value: 
             {spans.length === 0 && <span className="text-slateblue-500">Closed</span>}
             {spans.map(([s, e], i) => (
               <span key={i} className="inline-flex items-center gap-1">
-                <input aria-label={`${name} opens`} type="time" className="field w-28 py-1 font-mono" value={hhmm(s)} onChange={(ev) => { const v = parseHhmm(ev.target.value); if (v !== null) setDay(day, spans.map((sp, j) => (j === i ? [v, sp[1]] : sp))); }} />
+                <input aria-label={`${name} opens`} type="time" className="field w-36 py-1 font-mono" value={hhmm(s)} onChange={(ev) => { const v = parseHhmm(ev.target.value); if (v !== null) setDay(day, spans.map((sp, j) => (j === i ? [v, sp[1]] : sp))); }} />
                 –
-                <input aria-label={`${name} closes`} type="time" className="field w-28 py-1 font-mono" value={e >= 1440 ? '23:59' : hhmm(e)} onChange={(ev) => { const v = parseHhmm(ev.target.value); if (v !== null) setDay(day, spans.map((sp, j) => (j === i ? [sp[0], v === 1439 ? 1440 : v] : sp))); }} />
+                <input aria-label={`${name} closes`} type="time" className="field w-36 py-1 font-mono" value={e >= 1440 ? '23:59' : hhmm(e)} onChange={(ev) => { const v = parseHhmm(ev.target.value); if (v !== null) setDay(day, spans.map((sp, j) => (j === i ? [sp[0], v === 1439 ? 1440 : v] : sp))); }} />
                 <button type="button" className="text-xs text-ember-800 underline" onClick={() => setDay(day, spans.filter((_, j) => j !== i))}>remove</button>
               </span>
             ))}

@@ -109,8 +109,8 @@ function Screen({ users }: { users: User[] }) {
   const [editing, setEditing] = useState<Farrier | 'new' | null>(null);
   const columns: Column<Farrier>[] = [
     { key: 'name', label: 'Farrier', sort: 'name', render: (x) => <span className="inline-flex items-center gap-2 font-semibold"><span className="inline-block h-3 w-3 rounded-full" style={{ background: x.colour }} />{x.name}{x.archivedAt && <span className="rounded bg-slateblue-100 px-1.5 text-[10px] uppercase">archived</span>}</span> },
-    { key: 'days', label: 'Days', render: (x) => <span className="font-mono text-xs">{x.workingDays.map((d) => WEEKDAYS_SHORT[d - 1]).join(' ')}</span> },
-    { key: 'hours', label: 'Hours', sort: 'shiftStartMinute', render: (x) => <span className="figure">{hhmm(x.shiftStartMinute)}–{hhmm(x.shiftEndMinute)}</span> },
+    { key: 'days', label: 'Days', className: 'whitespace-nowrap', render: (x) => <span className="font-mono text-xs">{x.workingDays.map((d) => WEEKDAYS_SHORT[d - 1]!.slice(0, 2)).join(' ')}</span> },
+    { key: 'hours', label: 'Hours', sort: 'shiftStartMinute', className: 'whitespace-nowrap', render: (x) => <span className="figure">{hhmm(x.shiftStartMinute)}–{hhmm(x.shiftEndMinute)}</span> },
     { key: 'skills', label: 'Truck and skills', render: (x) => [x.hasForge ? 'Forge' : 'No forge', x.qualifiedTherapeutic && 'Therapeutic', x.apprentice && 'Apprentice'].filter(Boolean).join(' · ') },
     { key: 'cost', label: 'Cost/h', sort: 'costPerHourCents', className: 'text-right', render: (x) => <span className="figure">{money(x.costPerHourCents)}</span> },
     { key: 'user', label: 'Signs in as', render: (x) => x.userEmail ?? '—' },

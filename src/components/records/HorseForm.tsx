@@ -59,7 +59,7 @@ function Form({ horse, owners, barns, workTypes, barnId }: { horse: HorseInput |
             {barns.map((b) => <option key={b.id} value={b.id}>{b.name}</option>)}
           </select>
         </FormField>
-        <div className="grid grid-cols-2 gap-3">
+        <div className="grid grid-cols-[6rem_1fr] gap-3">
           <FormField id="horse-cycle" label="Cycle (weeks)" error={errors.cycleWeeks}><input id="horse-cycle" type="number" min={1} max={26} className="field font-mono" value={f.cycleWeeks} onChange={(e) => setF({ ...f, cycleWeeks: e.target.value })} /></FormField>
           <FormField id="horse-last" label="Last visit" error={errors.lastVisitOn}><input id="horse-last" type="date" className="field font-mono" value={f.lastVisitOn} onChange={(e) => setF({ ...f, lastVisitOn: e.target.value })} /></FormField>
         </div>

@@ -75,7 +75,7 @@ function Uploads({ horseId, canWrite }: { horseId: number; canWrite: boolean }) 
             </a>
             <div className="px-2 py-1 text-xs">
               <p className="truncate font-semibold" title={u.fileName}>{u.fileName}</p>
-              <p className="text-slateblue-500">{KIND_LABEL[u.kind]} · <span className="font-mono">{(u.sizeBytes / 1024 / 1024).toFixed(1)} MB</span> · {u.createdAt.slice(0, 10)}</p>
+              <p className="text-slateblue-500">{KIND_LABEL[u.kind]} · <span className="font-mono">{u.sizeBytes < 1024 * 1024 ? `${Math.max(1, Math.round(u.sizeBytes / 1024))} KB` : `${(u.sizeBytes / 1024 / 1024).toFixed(1)} MB`}</span> · {u.createdAt.slice(0, 10)}</p>
               {canWrite && <button type="button" className="text-ember-800 underline" onClick={() => { if (window.confirm(`Remove ${u.fileName}?`)) remove.mutate(u.id); }}>Remove</button>}
             </div>
           </li>

@@ -54,7 +54,7 @@ export default function PinPicker({ value, onChange, height = '320px', label = '
           </Marker>
         )}
       </Map>
-      <p className="pointer-events-none absolute bottom-2 left-2 rounded bg-white/90 px-2 py-1 text-xs text-slateblue-800 shadow">
+      <p className="pointer-events-none absolute left-2 top-2 rounded bg-white/90 px-2 py-1 text-xs text-slateblue-800 shadow">
         {value ? <>Drag the pin to move it · <span className="font-mono">{value.lat.toFixed(5)}, {value.lon.toFixed(5)}</span></> : 'Click the map to place the pin'}
       </p>
     </div>
