@@ -3,6 +3,7 @@ import { evalRoute } from './route-eval';
 
 /**
  * Why a job is unplanned. Codes are stable API (documented in docs/solver.md):
+ * - `no_farrier_working` — no farrier works this day at all;
  * - `pinned_farrier_unavailable` — pinned to a farrier who is not working this day;
  * - `pinned_farrier_unfit` — pinned to a farrier without the skill, forge or capacity the job needs;
  * - `no_qualified_farrier` / `no_forge_farrier` — nobody working has the skill / a forge;
@@ -16,6 +17,7 @@ import { evalRoute } from './route-eval';
  * - `no_room` — could be done alone, but not within this plan at acceptable cost.
  */
 export type UnplannedReason =
+  | 'no_farrier_working'
   | 'pinned_farrier_unavailable'
   | 'pinned_farrier_unfit'
   | 'no_qualified_farrier'
@@ -32,6 +34,7 @@ export type UnplannedReason =
 export function impossibleReason(m: Model, j: number): UnplannedReason | null {
   const p = m.problem, job = p.jobs[j];
   const F = m.nFarriers;
+  if (F === 0) return 'no_farrier_working';
   if (job.pin) {
     const f = p.farriers.findIndex((x) => x.id === job.pin!.farrierId);
     if (f < 0) return 'pinned_farrier_unavailable';
@@ -41,7 +44,6 @@ export function impossibleReason(m: Model, j: number): UnplannedReason | null {
     if (job.needsQualified && !q) return 'no_qualified_farrier';
     if (job.needsForge && !fo) return 'no_forge_farrier';
     if (job.needsQualified && job.needsForge && !p.farriers.some((f) => f.qualified && f.hasForge)) return 'no_qualified_forge_farrier';
-    if (!p.farriers.some((f) => (!job.needsQualified || f.qualified) && (!job.needsForge || f.hasForge))) return 'no_qualified_forge_farrier';
     let fits = false;
     for (let f = 0; f < F; f++) if (m.eligible[f * m.nJobs + j]) fits = true;
     if (!fits) return 'over_capacity';

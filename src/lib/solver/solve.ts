@@ -11,7 +11,7 @@ import type { Problem } from './problem';
 export interface StopRule {
   maxIterations?: number;
   maxSeconds?: number;
-  /** Stop after this many iterations without a new best plan. */
+  /** Stop after this many iterations without a new best plan (default 400 per job, at least 20,000). */
   noImprovementIterations?: number;
 }
 
@@ -94,7 +94,8 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
   const stop = opts.stop ?? {};
   const maxIt = stop.maxIterations ?? Infinity;
   const maxSec = stop.maxSeconds ?? (stop.maxIterations === undefined && stop.noImprovementIterations === undefined ? 10 : Infinity);
-  const noImp = stop.noImprovementIterations ?? Infinity;
+  // stop early when the search stalls: by default after 400 iterations per job (at least 20,000) without a new best plan
+  const noImp = stop.noImprovementIterations ?? Math.max(20000, 400 * m.nJobs);
   let iterations = 0, improvements = 0;
   let stopReason: SolveResult['statistics']['stopReason'] = 'iterations';
   let lastProgress = -1;

@@ -82,6 +82,14 @@ describe('unplanned reasons for jobs that cannot be done', () => {
     expect(checkSolution(p, r, { complete: true }).feasible).toBe(true);
   });
 
+  it('reports no_farrier_working for every job of a day with no farriers', () => {
+    const p = day([{}, { needsForge: true }], []);
+    const r = solve(p, { seed: 1, stop: { maxIterations: 20 } });
+    expect(r.unplanned).toEqual([{ jobId: 'j1', reason: 'no_farrier_working' }, { jobId: 'j2', reason: 'no_farrier_working' }]);
+    expect(r.routes).toEqual([]);
+    expect(r.statistics.stopReason).toBe('nothing_to_do');
+  });
+
   it('reports no_room for a job that fits alone but not beside the others', () => {
     // three 3-hour jobs at one barn for one 8-hour farrier: 40 min drive + 10 min set-up + 9 h > 8 h
     const p = day([{ durationSec: 3 * H }, { durationSec: 3 * H }, { durationSec: 3 * H }]);
