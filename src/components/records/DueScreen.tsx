@@ -107,14 +107,14 @@ function Screen({ barns, farriers, workTypes }: { barns: Option[]; farriers: Opt
               {data && data.items.length === 0 && <tr><td colSpan={8} className="px-3 py-6 text-center text-slateblue-500">No horses match.</td></tr>}
               {data?.items.map((h) => (
                 <tr key={h.horseId} className="border-t border-slateblue-100" data-horse={h.horseName}>
-                  <td className="px-3 py-2"><span className={`mr-2 rounded px-1.5 py-0.5 text-[10px] font-semibold uppercase ${BADGE[h.bucket]}`}>{BADGE_LABEL[h.bucket]}</span><span className="figure">{h.nextDueOn ?? 'now'}</span></td>
+                  <td className="whitespace-nowrap px-3 py-2"><span className={`mr-2 rounded px-1.5 py-0.5 text-[10px] font-semibold uppercase ${BADGE[h.bucket]}`}>{BADGE_LABEL[h.bucket]}</span><span className="figure">{h.nextDueOn ?? 'now'}</span></td>
                   <td className="px-3 py-2"><a className="font-semibold hover:text-ember-700" href={`/horses/${h.horseId}`}>{h.horseName}</a>{h.needsSecondPerson && <span className="ml-1 rounded bg-hay-200 px-1 text-[10px] uppercase" title="Needs a second person">2nd</span>}<div className="text-xs text-slateblue-500">{h.ownerName}</div></td>
                   <td className="px-3 py-2">{h.barnName}</td>
                   <td className="px-3 py-2">{h.work.join(', ') || '—'}</td>
                   <td className="px-3 py-2 text-right figure">{h.minutes}</td>
-                  <td className="px-3 py-2 figure">{h.lastVisitOn ?? '—'}</td>
+                  <td className="whitespace-nowrap px-3 py-2 figure">{h.lastVisitOn ?? '—'}</td>
                   <td className="px-3 py-2">{h.lastFarrierName ?? '—'}</td>
-                  <td className="px-3 py-2">{h.openJob ? <span className="text-xs font-semibold text-slateblue-700">{JOB_LABEL[h.openJob.state] ?? h.openJob.state} <span className="font-mono font-normal">{h.openJob.dueOn}</span></span> : <button type="button" className="btn-quiet px-2 py-1 text-xs" disabled={one.isPending} onClick={() => one.mutate(h.horseId)}>Create job</button>}</td>
+                  <td className="px-3 py-2">{h.openJob ? <span className="whitespace-nowrap text-xs font-semibold text-slateblue-700">{JOB_LABEL[h.openJob.state] ?? h.openJob.state} <span className="font-mono font-normal">{h.openJob.dueOn}</span></span> : <button type="button" className="btn-quiet px-2 py-1 text-xs" disabled={one.isPending} onClick={() => one.mutate(h.horseId)}>Create job</button>}</td>
                 </tr>
               ))}
             </tbody>

@@ -36,7 +36,7 @@ function Screen() {
     <div className="space-y-4">
       <section className="card space-y-2 p-4">
         <h2>1. Choose a CSV file</h2>
-        <p className="text-sm text-slateblue-600">One row per horse, with its owner and barn. A barn that is not on record yet needs an address from the region's address list. Try the <a className="underline" href="/samples/demo-owners.csv" download>sample file of the fictional demo</a>.</p>
+        <p className="text-sm text-slateblue-600">One row per horse, with its owner and barn. A barn not on record yet needs an address from the region's address points, or an address with latitude and longitude. Try the <a className="underline" href="/samples/demo-owners.csv" download>sample file of the fictional demo</a>.</p>
         <input id="import-file" type="file" accept=".csv,text/csv" className="text-sm" onChange={(e) => void choose(e.target.files?.[0])} aria-label="CSV file" />
       </section>
       {error && <p role="alert" className="rounded-lg bg-ember-50 px-3 py-2 text-sm text-ember-800">{error}</p>}
