@@ -270,7 +270,7 @@ describe('CSV import', () => {
 
 async function upload(horseId: number, bytes: Uint8Array, name: string, cookie = dispatcher) {
   const form = new FormData();
-  form.set('file', new Blob([bytes]), name);
+  form.set('file', new Blob([new Uint8Array(bytes)]), name);
   form.set('kind', 'photo');
   const response = await fetch(`${APP_URL}/api/horses/${horseId}/uploads`, { method: 'POST', body: form, headers: { cookie, origin: APP_URL } });
   return { status: response.status, body: await response.json().catch(() => null) };
