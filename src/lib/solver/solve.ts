@@ -138,18 +138,24 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
       iterations += r.iterations;
     }
     let cur = best.clone();
-    // annealing restarts from the best plan every `cycle` iterations, so a run of any length ends
-    // its cycles at low temperature without the schedule ever reading the clock
-    const cycle = Math.max(2000, 100 * m.nJobs);
+    // annealing restarts from the best plan at the end of each cycle; cycles start short (10
+    // iterations per job) and double up to 200 per job, so a short run still reaches low
+    // temperatures and a long one anneals slowly — without the schedule ever reading the clock
+    const maxCycle = Math.max(4000, 200 * m.nJobs);
+    let cycle = Math.min(maxCycle, Math.max(500, 10 * m.nJobs));
+    let cycleStart = 0;
     let sinceBest = 0;
     const eps = 1e-9 * Math.max(1, m.typicalArcCost);
     while ((stopReason as string) !== 'cancelled') {
       if (iterations >= maxIt) { stopReason = 'iterations'; break; }
       if (sinceBest >= noImp) { stopReason = 'no_improvement'; break; }
       if (outOfTime()) break;
-      const phasePos = iterations % cycle;
-      if (phasePos === 0 && iterations > 0) cur = best.clone();
-      const T = annealTemperature(m, phasePos / cycle);
+      if (iterations - cycleStart >= cycle) {
+        cycleStart = iterations;
+        cycle = Math.min(maxCycle, cycle * 2);
+        cur = best.clone();
+      }
+      const T = annealTemperature(m, (iterations - cycleStart) / cycle);
       const cand = cur.clone();
       const { removed, seed } = ruinAround(cand, rng, DEFAULT_SISR);
       recreate(cand, rng, DEFAULT_SISR, undefined, recreateCandidates(cand, rng, removed, seed, hopeless));
