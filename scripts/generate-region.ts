@@ -405,7 +405,7 @@ for (let tries = 0, made = 0; made < 95 && tries < 2000; tries++) {
   const probe = raw.find((p) => dist(p, raw[0]!) >= 100);
   if (raw.length < 3 || !probe || nearestRoadM(probe, 60) < 40) continue;
   const name = uniqueName(() => `${pick(LANE_WORDS)} ${pick(LANE_SUFFIX)}`);
-  const maxspeed = rand() < 0.3 ? { maxspeed: '35 mph' } : {};
+  const maxspeed: Record<string, string> = rand() < 0.3 ? { maxspeed: '35 mph' } : {};
   const placed = placeRoad(raw, { highway: 'unclassified', name, ...maxspeed }, rand() < 0.55 ? 'stop' : 'through', { line: spot.line.id, seg: spot.seg, t: spot.t });
   if (placed) made++;
   else usedNames.delete(name);

@@ -42,7 +42,7 @@ describe('GET /tiles/style.json', () => {
     const ids = s.layers.map((l) => l.id);
     for (const id of ['land', 'water', 'woods', 'road-major-casing', 'road-major', 'road-minor-casing', 'road-label', 'road-label-minor', 'village-label']) expect(ids).toContain(id);
     for (const id of ['road-label', 'road-label-minor']) expect(s.layers.find((l) => l.id === id)!.layout!['symbol-placement']).toBe('line');
-    const shipped = new Set(MAP_FONTS.map((f) => f.stack));
+    const shipped = new Set<string>(MAP_FONTS.map((f) => f.stack));
     for (const l of s.layers) {
       const fonts = l.layout?.['text-font'] as string[] | undefined;
       if (fonts) for (const f of fonts) expect(shipped.has(f)).toBe(true);

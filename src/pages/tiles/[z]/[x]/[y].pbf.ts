@@ -19,7 +19,7 @@ export const GET = (async ({ params }) => {
   }
   const bytes = getRegionTiles().tile(Number(z), Number(x), Number(y));
   if (!bytes) return new Response(null, { status: 204, headers: { 'Cache-Control': 'public, max-age=3600' } });
-  return new Response(bytes, {
+  return new Response(bytes as Uint8Array<ArrayBuffer>, {
     headers: { 'Content-Type': 'application/vnd.mapbox-vector-tile', 'Cache-Control': 'public, max-age=3600', 'Content-Length': String(bytes.length) },
   });
 }) satisfies APIRoute;

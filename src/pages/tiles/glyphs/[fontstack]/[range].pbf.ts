@@ -15,5 +15,5 @@ export const GET = (async ({ params }) => {
       headers: { 'Content-Type': 'application/json' },
     });
   }
-  return new Response(bytes, { headers: { 'Content-Type': 'application/x-protobuf', 'Cache-Control': 'public, max-age=86400' } });
+  return new Response(bytes as Uint8Array<ArrayBuffer>, { headers: { 'Content-Type': 'application/x-protobuf', 'Cache-Control': 'public, max-age=86400' } });
 }) satisfies APIRoute;
