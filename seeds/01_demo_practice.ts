@@ -14,11 +14,6 @@ export const DEMO_PASSWORD = 'roundsmith-demo';
 const TZ = 'America/New_York';
 const SEED = 20261201;
 
-const TABLES = [
-  'audit_log', 'messages', 'visit_log_horses', 'visit_logs', 'day_logs', 'stop_jobs', 'stops', 'routes', 'plans',
-  'job_work_types', 'jobs', 'horse_work_types', 'horses', 'work_types', 'barns', 'owners', 'invites',
-  'sign_in_attempts', 'user_sessions', 'users', 'farriers', 'practices',
-];
 
 interface AddressPoint {
   id: string;
@@ -457,8 +452,11 @@ export async function seed(knex: Knex): Promise<void> {
   }
 
   await knex.transaction(async (trx) => {
+    // Every table but knex's own bookkeeping: a table added by a later migration is emptied too.
+    const [listed] = await trx.raw('SHOW TABLES');
+    const tables = (listed as Record<string, string>[]).map((r) => Object.values(r)[0]!).filter((t) => !t.startsWith('knex_'));
     await trx.raw('SET FOREIGN_KEY_CHECKS = 0');
-    for (const table of TABLES) await trx.raw('TRUNCATE TABLE ??', [table]);
+    for (const table of tables) await trx.raw('TRUNCATE TABLE ??', [table]);
     await trx.raw('SET FOREIGN_KEY_CHECKS = 1');
   });
   const order = ['practices', 'work_types', 'farriers', 'users', 'owners', 'barns', 'horses', 'horse_work_types', 'plans', 'routes', 'stops', 'jobs', 'job_work_types', 'stop_jobs', 'visit_logs', 'visit_log_horses', 'day_logs'];

@@ -5,7 +5,8 @@ import { migrationSource, scratchDatabase } from './helpers/db.ts';
 const TABLES = [
   'practices', 'farriers', 'users', 'user_sessions', 'sign_in_attempts', 'invites', 'owners', 'barns',
   'work_types', 'horses', 'horse_work_types', 'jobs', 'job_work_types', 'plans', 'routes', 'stops',
-  'stop_jobs', 'messages', 'day_logs', 'visit_logs', 'visit_log_horses', 'audit_log',
+  'stop_jobs', 'messages', 'day_logs', 'visit_logs', 'visit_log_horses', 'audit_log', 'uploads',
+  'practice_text_settings', 'visit_marks',
 ];
 
 async function tables(knex: Knex): Promise<string[]> {
