@@ -60,6 +60,8 @@ export default function MapView({ barns, homes, routes = [], selectedBarnId, onB
     return boundsOf([...barns.map((b): [number, number] => [b.lon, b.lat]), ...homes.map((h): [number, number] => [h.lon, h.lat]), ...routePoints]);
   }, [fitTo, barns, homes, routes]);
 
+  // Re-frame only when the framed area changes, not on every render with new arrays of the same places.
+  const boundsKey = bounds ? bounds.map((v) => v.toFixed(6)).join(',') : '';
   useEffect(() => {
     if (!loaded || !bounds) return;
     mapRef.current?.fitBounds(
@@ -69,7 +71,7 @@ export default function MapView({ barns, homes, routes = [], selectedBarnId, onB
       ],
       { padding: 48, duration: 0, maxZoom: 15 },
     );
-  }, [loaded, bounds]);
+  }, [loaded, boundsKey]);
 
   const onClick = useCallback(
     (event: MapLayerMouseEvent) => {
