@@ -156,7 +156,8 @@ export function solveTsp(dist: ArrayLike<number>, n: number, opts: TspOptions): 
   let iterations = 0, since = 0;
   const maxIt = opts.maxIterations ?? Infinity;
   const maxSec = opts.maxSeconds ?? (opts.maxIterations === undefined ? 5 : Infinity);
-  const noImp = opts.noImprovementIterations ?? Infinity;
+  // stop early after a long stall (default 20,000 kicks without a shorter tour)
+  const noImp = opts.noImprovementIterations ?? 20000;
   while (iterations < maxIt && since < noImp && !(opts.target !== undefined && best <= opts.target)) {
     if ((iterations & 15) === 0 && performance.now() / 1000 - t0 >= maxSec) break;
     iterations++; since++;
