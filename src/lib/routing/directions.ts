@@ -232,8 +232,11 @@ export function directions(graph: RoadGraph, from: LatLon, to: LatLon, units: Un
       }
       const abs = Math.abs(angle);
       const side: 'left' | 'right' = angle < 0 ? 'left' : 'right';
-      // A fork: we and another way out both run within SLIGHT of straight on; say which branch to keep to.
-      const fork = abs < SLIGHT ? others.filter((o) => Math.abs(o) < SLIGHT).sort((x, y) => Math.abs(x - angle) - Math.abs(y - angle))[0] : undefined;
+      // A fork: another way out also runs within SLIGHT of straight on, near our branch. Staying on the
+      // same road is a fork only when the other way is about as straight as ours; otherwise the road
+      // simply goes on and needs no step.
+      const rivals = abs < SLIGHT ? others.filter((o) => Math.abs(o) < SLIGHT && Math.abs(o - angle) < 75 && (!sameRoad || Math.abs(o) <= abs + 15)) : [];
+      const fork = rivals.sort((x, y) => Math.abs(x - angle) - Math.abs(y - angle))[0];
       let kind: StepKind | null = null;
       if (fork !== undefined) kind = 'keep';
       else if (abs < STRAIGHT) kind = sameRoad ? null : 'continue';
