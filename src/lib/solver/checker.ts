@@ -23,6 +23,7 @@ export type ViolationCode =
   | 'overtime_exceeded'
   | 'times_differ';
 
+/** One broken rule: a stable `code` for screens and tests and a plain-words `message` for people. */
 export interface Violation {
   code: ViolationCode;
   message: string;
@@ -39,6 +40,7 @@ export interface RouteInput {
   endSec?: number;
 }
 
+/** A stop as the checker re-timed it. */
 export interface CheckedStop {
   barnId: string;
   location: number;
@@ -49,6 +51,7 @@ export interface CheckedStop {
   jobs: { jobId: string; startSec: number; endSec: number }[];
 }
 
+/** A route as the checker re-timed and costed it (same shape as the engine's routes). */
 export interface CheckedRoute {
   farrierId: string;
   stops: CheckedStop[];
@@ -62,6 +65,7 @@ export interface CheckedRoute {
   costCents: number;
 }
 
+/** Verdict of a check: feasible only when `violations` is empty; `costs` as re-derived from scratch. */
 export interface CheckResult {
   feasible: boolean;
   violations: Violation[];

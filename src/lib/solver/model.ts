@@ -108,6 +108,7 @@ export function farrierMayDo(problem: Problem, f: number, j: number): boolean {
   return true;
 }
 
+/** Compiles a validated problem into the search model (matrices, windows, eligibility, neighbours). */
 export function buildModel(problem: Problem): Model {
   const nJobs = problem.jobs.length;
   const nFarriers = problem.farriers.length;

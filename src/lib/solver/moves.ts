@@ -9,6 +9,7 @@ import type { State } from './state';
  */
 export type MoveKind = 'relocate' | 'swap' | 'two-opt-star' | 'or-opt' | 'cross-exchange' | 'two-opt' | 'insert-unplanned' | 'exchange-unplanned';
 
+/** A local-search move: the routes it rewrites and the jobs it brings into or out of the plan. */
 export class Move {
   /**
    * `changes`: new sequences of the routes the move rewrites. `enter` / `leave`: jobs that join the

@@ -129,9 +129,11 @@ export const problemSchema = z
 export type Problem = Readonly<z.output<typeof problemSchema>> & { readonly __validated: true };
 /** The shape callers write (defaults may be omitted). */
 export type ProblemInput = z.input<typeof problemSchema>;
+/** Validated parts of a problem, with defaults filled in. */
 export type Farrier = Problem['farriers'][number];
 export type Barn = Problem['barns'][number];
 export type Job = Problem['jobs'][number];
+/** A closed interval of seconds since local midnight. */
 export type TimeWindow = { startSec: number; endSec: number };
 
 /** One reason a problem was rejected, with the path of the offending field. */

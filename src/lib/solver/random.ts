@@ -11,6 +11,7 @@ export interface Rng {
   shuffle<T>(a: T[]): T[];
 }
 
+/** A generator for `seed`; the same seed always yields the same sequence. */
 export function createRng(seed: number): Rng {
   let x = (seed | 0) ^ 0x9e3779b9;
   const split = () => {

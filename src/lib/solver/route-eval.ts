@@ -41,6 +41,7 @@ export interface RouteEval {
 const INFEASIBLE: RouteEval = Object.freeze({ feasible: false, cost: Infinity, driveSec: 0, distanceM: 0, workSec: 0, overtimeSec: 0, startSec: 0, endSec: 0, load: 0 }) as RouteEval;
 const EMPTY: RouteEval = Object.freeze({ feasible: true, cost: 0, driveSec: 0, distanceM: 0, workSec: 0, overtimeSec: 0, startSec: 0, endSec: 0, load: 0 }) as RouteEval;
 
+/** Times and costs farrier f doing `jobs` in order; `feasible: false` (cost Infinity) on the first broken rule. */
 export function evalRoute(m: Model, f: number, jobs: ArrayLike<number>, withTimes = false): RouteEval {
   const n = jobs.length;
   if (n === 0) return EMPTY;

@@ -15,8 +15,10 @@ export interface SisrParams {
   splitRate: number;
 }
 
+/** The paper's parameter values. */
 export const DEFAULT_SISR: SisrParams = { avgRemoved: 10, maxString: 10, blinkRate: 0.01, splitRate: 0.5 };
 
+/** Removes strings of jobs around a random seed job; returns the removed jobs. */
 export function ruin(s: State, rng: Rng, p: SisrParams): number[] {
   return ruinAround(s, rng, p).removed;
 }

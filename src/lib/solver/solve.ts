@@ -15,6 +15,7 @@ export interface StopRule {
   noImprovementIterations?: number;
 }
 
+/** What the search reports while it runs (at most every 0.1 s, and at phase changes). */
 export interface Progress {
   iterations: number;
   seconds: number;
@@ -24,6 +25,7 @@ export interface Progress {
   phase: 'construct' | 'fleet' | 'improve';
 }
 
+/** How to run `solve`; `seed` makes the run reproducible. */
 export interface SolveOptions {
   seed: number;
   stop: StopRule;
@@ -34,7 +36,9 @@ export interface SolveOptions {
   fleetShare?: number;
 }
 
+/** One job's work inside a stop. */
 export interface PlannedJob { jobId: string; startSec: number; endSec: number }
+/** One farrier's visit to one barn. */
 export interface PlannedStop {
   barnId: string;
   location: number;
@@ -46,6 +50,7 @@ export interface PlannedStop {
   jobIds: string[];
   jobs: PlannedJob[];
 }
+/** One farrier's day: stops in order, times, drive, overtime and cost in cents. */
 export interface PlannedRoute {
   farrierId: string;
   stops: PlannedStop[];
@@ -58,6 +63,7 @@ export interface PlannedRoute {
   overtimeSec: number;
   costCents: number;
 }
+/** The plan `solve` returns: routes, unplanned jobs with reasons, cost and run statistics. */
 export interface SolveResult {
   /** One route per farrier, in the problem's order; an idle farrier has no stops and zero cost. */
   routes: PlannedRoute[];

@@ -17,6 +17,7 @@ export interface TspOptions {
   neighbours?: number;
 }
 
+/** Best tour found (city indices), its length, and the run's iterations and seconds. */
 export interface TspResult {
   tour: number[];
   length: number;
@@ -24,12 +25,14 @@ export interface TspResult {
   seconds: number;
 }
 
+/** Length of a closed tour under a flat n × n distance matrix. */
 export function tourLength(dist: ArrayLike<number>, n: number, tour: ArrayLike<number>): number {
   let s = 0;
   for (let i = 0; i < tour.length; i++) s += dist[tour[i] * n + tour[(i + 1) % tour.length]];
   return s;
 }
 
+/** Searches for a short closed tour through all n cities; deterministic for a seed and iteration limit. */
 export function solveTsp(dist: ArrayLike<number>, n: number, opts: TspOptions): TspResult {
   const t0 = performance.now() / 1000;
   if (n <= 3) {
