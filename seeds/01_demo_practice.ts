@@ -84,8 +84,8 @@ const DEMO_FARRIERS: FarrierSpec[] = [
   { name: 'Rory Pellingham', qualified: true, apprentice: false, forge: true, days: [1, 2, 3, 4, 5, 6], colour: '#1d4ed8', costCents: 4200, loadMinutes: 540 },
   { name: 'Idris Calloway', qualified: false, apprentice: false, forge: true, days: [1, 2, 3, 4, 5], colour: '#15803d', costCents: 3800 },
   { name: 'Maren Oakridge', qualified: false, apprentice: false, forge: true, days: [2, 3, 4, 5, 6], colour: '#7e22ce', costCents: 3800 },
-  { name: 'Jory Whitlam', qualified: false, apprentice: false, forge: true, days: [1, 2, 3, 4, 5], colour: '#b45309', costCents: 3600 },
-  { name: 'Wes Tindall', qualified: false, apprentice: true, forge: false, days: [1, 2, 3, 4], colour: '#0f766e', costCents: 2400 },
+  { name: 'Jory Whitlam', qualified: false, apprentice: false, forge: true, days: [1, 2, 3, 4, 5], colour: '#db2777', costCents: 3600 },
+  { name: 'Wes Tindall', qualified: false, apprentice: true, forge: false, days: [1, 2, 3, 4], colour: '#ca8a04', costCents: 2400 },
 ];
 
 interface Rows { [table: string]: Record<string, unknown>[] }
