@@ -22,7 +22,7 @@ export const SCREENS: Screen[] = [
   { href: '/barns', label: 'Barns', rule: 'dispatcher', ready: true, blurb: 'Where horses are kept, access hours and notes.' },
   { href: '/owners', label: 'Owners', rule: 'dispatcher', ready: true, blurb: 'Clients, phone numbers and text consent.' },
   { href: '/work-types', label: 'Work types', rule: 'dispatcher', ready: true, blurb: 'Minutes, forge and qualification per kind of work.' },
-  { href: '/map', label: 'Region map', rule: 'signed-in', ready: false, blurb: 'Barns and farrier homes on the practice map.' },
+  { href: '/map', label: 'Region map', rule: 'signed-in', ready: true, blurb: 'Barns and farrier homes on the practice map.' },
   { href: '/messages', label: 'Messages', rule: 'dispatcher', ready: true, blurb: 'Texts and e-mails sent to owners and farriers.' },
   { href: '/team', label: 'Team', rule: 'lead', ready: true, blurb: 'People who sign in, and invitations.' },
   { href: '/review', label: 'Review', rule: 'lead', ready: true, blurb: 'Overtime and mileage, planned against actual.' },
