@@ -2,7 +2,8 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState, type FormEvent } from 'react';
 import QueryRoot from './QueryRoot.tsx';
 import FormField from './FormField.tsx';
-import { api, ApiError } from '../lib/client/api.ts';
+import { api } from '../lib/client/api.ts';
+import { apiErrors, zodErrors } from '../lib/client/form-errors.ts';
 import { settingsSchema, type SettingsInput } from '../schemas/settings.ts';
 
 type Settings = Required<{ [K in keyof SettingsInput]: Exclude<SettingsInput[K], undefined> }>;
@@ -26,7 +27,7 @@ function Form({ initial }: { initial: Settings }) {
       setSaved(true);
       void client.invalidateQueries();
     },
-    onError: (e) => setFields(e instanceof ApiError ? { ...e.fields, _: e.message } : { _: 'Could not save' }),
+    onError: (e) => setFields(apiErrors(e)),
   });
 
   const num = (v: string) => (v.trim() === '' ? null : Number(v));
@@ -42,9 +43,7 @@ function Form({ initial }: { initial: Settings }) {
     };
     const parsed = settingsSchema.safeParse(body);
     if (!parsed.success) {
-      const next: Record<string, string> = {};
-      for (const issue of parsed.error.issues) next[issue.path.join('.')] ??= issue.message;
-      setFields(next);
+      setFields(zodErrors(parsed.error));
       return;
     }
     setFields({});

@@ -2,7 +2,8 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState, type FormEvent } from 'react';
 import QueryRoot from './QueryRoot.tsx';
 import FormField from './FormField.tsx';
-import { api, ApiError } from '../lib/client/api.ts';
+import { api } from '../lib/client/api.ts';
+import { apiErrors, zodErrors } from '../lib/client/form-errors.ts';
 import { inviteSchema } from '../schemas/auth.ts';
 
 interface User { id: number; email: string; name: string; role: string; active: boolean; farrierId: number | null }
@@ -29,7 +30,7 @@ function Team({ farriers, selfId }: { farriers: FarrierOption[]; selfId: number 
       setForm({ email: '', name: '', role: 'dispatcher', farrierId: '' });
       void client.invalidateQueries({ queryKey: ['invites'] });
     },
-    onError: (error) => setFields(error instanceof ApiError ? { ...error.fields, _: error.message } : { _: 'Could not send the invitation' }),
+    onError: (error) => setFields(apiErrors(error)),
   });
   const fieldNames = (...keys: string[]) => keys.map((k) => fields[k]).find(Boolean);
 
@@ -39,9 +40,7 @@ function Team({ farriers, selfId }: { farriers: FarrierOption[]; selfId: number 
     const body = { email: form.email, name: form.name, role: form.role, farrierId: form.farrierId ? Number(form.farrierId) : null };
     const parsed = inviteSchema.safeParse(body);
     if (!parsed.success) {
-      const next: Record<string, string> = {};
-      for (const issue of parsed.error.issues) next[issue.path.join('.')] ??= issue.message;
-      setFields(next);
+      setFields(zodErrors(parsed.error));
       return;
     }
     setFields({});

@@ -1,6 +1,3 @@
-import type { ZodError } from 'zod';
-import { ApiError } from '../../lib/client/api.ts';
-
 /** Minutes after midnight as "07:30". */
 export function hhmm(minutes: number): string {
   const h = Math.floor(minutes / 60);
@@ -21,18 +18,7 @@ export function money(cents: number): string {
   return `$${(cents / 100).toFixed(2)}`;
 }
 
-/** Field errors of a failed client-side parse, first message per field. */
-export function zodErrors(error: ZodError): Record<string, string> {
-  const out: Record<string, string> = {};
-  for (const issue of error.issues) out[issue.path.join('.') || '_'] ??= issue.message;
-  return out;
-}
-
-/** Field errors of a failed API call, with the overall message under "_". */
-export function apiErrors(error: unknown): Record<string, string> {
-  if (error instanceof ApiError) return { ...error.fields, _: error.message };
-  return { _: 'Could not reach the server; try again.' };
-}
+export { zodErrors, apiErrors } from '../../lib/client/form-errors.ts';
 
 export const WEEKDAYS = ['Monday', 'Tuesday', 'Wednesday', 'Thursday', 'Friday', 'Saturday', 'Sunday'];
 export const WEEKDAYS_SHORT = ['Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat', 'Sun'];
