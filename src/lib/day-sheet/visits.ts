@@ -5,9 +5,11 @@
  * state, arrived_at, departed_at, skip_reason, stop_id, barn_id, farrier_id, visit_date, client_key
  * (the first mark's key); done stops also get visit_log_horses rows (work and revenue per horse).
  * Jobs follow: arrived → in_progress, done → done (and the horse's last_visit_on), skipped → skipped.
+ * The first stop mark of a day not yet started starts it (day_logs) at the route's planned departure.
  */
 import type { Knex } from 'knex';
 import { reestimate, type StopMark } from './reestimate.ts';
+import { startDayImplicitly } from './day-logs.ts';
 
 export interface MarkInput {
   clientKey: string;
@@ -61,12 +63,15 @@ export async function recordMark(db: Knex, actor: MarkActor, input: MarkInput): 
       .join('routes as r', 'r.id', 's.route_id')
       .join('plans as p', 'p.id', 'r.plan_id')
       .where({ 's.id': input.stopId, 's.practice_id': actor.practiceId })
-      .select('s.id', 's.barn_id', 's.leg_distance_m', 'r.farrier_id', 'p.plan_date', 'p.state as plan_state')
+      .select('s.id', 's.barn_id', 's.leg_distance_m', 'r.farrier_id', 'r.start_at as route_start_at', 'p.plan_date', 'p.state as plan_state')
       .forUpdate()
       .first();
     if (!stop || (actor.role === 'farrier' && stop.farrier_id !== actor.farrierId)) throw new MarkRefused(404, 'Stop not found');
     if (stop.plan_state !== 'published') throw new MarkRefused(409, 'This day is not published yet');
     if (input.state === 'skipped' && !input.skipReason?.trim()) throw new MarkRefused(400, 'Give a reason for skipping');
+
+    // A stop marked before "Start the day" starts the day at the planned departure (the sheet says so).
+    await startDayImplicitly(trx, { practiceId: actor.practiceId, farrierId: stop.farrier_id, date: stop.plan_date, plannedStartAt: new Date(stop.route_start_at), userId: actor.id, stopId: stop.id });
 
     const at = new Date(input.at);
     const [markId] = await trx('visit_marks').insert({
