@@ -15,7 +15,8 @@ export function knexConfig(databaseUrl: string, pool = { min: 0, max: 10 }): Kne
       password: decodeURIComponent(url.password),
       database: url.pathname.replace(/^\//, ''),
       timezone: 'Z',
-      dateStrings: ['DATE'],
+      // mysql2 takes a list of column types here; knex's typing only knows the boolean form.
+      dateStrings: ['DATE'] as unknown as boolean,
       decimalNumbers: true,
       charset: 'utf8mb4',
       supportBigNumbers: true,
