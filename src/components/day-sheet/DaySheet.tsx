@@ -2,11 +2,14 @@
  * The farrier's day sheet (client:load): one column, large type, big buttons for one thumb. Server
  * rendered with the whole day, so it reads and prints without JavaScript; once hydrated it marks
  * stops, keeps marks in an offline queue and re-estimates the stops ahead from the actual times.
+ * The day itself is marked too: Start the day (leaving home) and Back home, with odometer readings.
  */
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { DaySheet as Sheet, DaySheetLeg, DaySheetStop } from '../../lib/day-sheet/day-sheet';
 import { reestimate, type StopMark } from '../../lib/day-sheet/reestimate';
-import { newClientKey, readQueue, sendMark, writeQueue, type QueuedMark } from './mark-queue';
+import type { DayLogView } from '../../lib/day-sheet/day-logs';
+import { isDayMark, newClientKey, readQueue, sendMark, writeQueue, type QueuedDayMark, type QueuedMark, type QueuedStopMark } from './mark-queue';
+import DayMarks from './DayMarks';
 
 interface Props {
   sheet: Sheet;
@@ -75,6 +78,8 @@ export default function DaySheet({ sheet, timeZone, units, canMark, skipReasons 
   const stopIds = useMemo(() => new Set(sheet.stops.map((s) => s.id)), [sheet.stops]);
 
   // Marks from the server, overlaid with this phone's marks not yet confirmed.
+  const [confirmedDay, setConfirmedDay] = useState<DayLogView | null>(sheet.dayLog);
+  const isMine = useCallback((q: QueuedMark): q is QueuedDayMark => isDayMark(q) && q.date === sheet.date && q.farrierId === sheet.farrier.id, [sheet.date, sheet.farrier.id]);
   const [confirmed, setConfirmed] = useState<Map<number, StopMark & { skipReason: string | null }>>(() => {
     const m = new Map<number, StopMark & { skipReason: string | null }>();
     for (const s of sheet.stops) {
@@ -86,7 +91,7 @@ export default function DaySheet({ sheet, timeZone, units, canMark, skipReasons 
   const marks = useMemo(() => {
     const m = new Map(confirmed);
     for (const q of [...queue].sort((a, b) => a.at.localeCompare(b.at))) {
-      if (!stopIds.has(q.stopId)) continue;
+      if (isDayMark(q) || !stopIds.has(q.stopId)) continue;
       const at = Date.parse(q.at);
       const prev = m.get(q.stopId);
       if (q.state === 'arrived') m.set(q.stopId, { state: 'arrived', arrivedMs: prev?.arrivedMs ?? at, departedMs: null, skipReason: null });
@@ -101,9 +106,20 @@ export default function DaySheet({ sheet, timeZone, units, canMark, skipReasons 
     [sheet.stops, marks],
   );
 
+  /** Reads the day log as the server holds it (after a refused day mark, or a first stop that started the day). */
+  const refreshDay = useCallback(async () => {
+    try {
+      const response = await fetch(`/api/day-logs?date=${sheet.date}&farrier=${sheet.farrier.id}`, { headers: { accept: 'application/json' }, credentials: 'same-origin' });
+      if (response.ok) setConfirmedDay(((await response.json()) as { dayLogs: DayLogView[] }).dayLogs[0] ?? null);
+    } catch {
+      // offline: keep what we have
+    }
+  }, [sheet.date, sheet.farrier.id]);
+
   const flush = useCallback(async () => {
     if (flushing.current) return;
     flushing.current = true;
+    let dayTouched = false;
     try {
       let list = readQueue();
       for (const mark of [...list]) {
@@ -115,6 +131,18 @@ export default function DaySheet({ sheet, timeZone, units, canMark, skipReasons 
         setOnline(true);
         list = readQueue().filter((m) => m.clientKey !== mark.clientKey);
         writeQueue(list);
+        if (isDayMark(mark)) {
+          dayTouched = true;
+          if (outcome.ok) {
+            const log = (outcome.body as { dayLog?: DayLogView } | null)?.dayLog;
+            if (log && mark.date === sheet.date && mark.farrierId === sheet.farrier.id) setConfirmedDay(log);
+          } else {
+            setProblem(`${mark.kind === 'start' ? 'Start the day' : 'Back home'} was refused: ${outcome.message}`);
+          }
+          setQueue(list);
+          continue;
+        }
+        dayTouched = true;
         if (outcome.ok) {
           setConfirmed((prev) => {
             const next = new Map(prev);
@@ -133,7 +161,8 @@ export default function DaySheet({ sheet, timeZone, units, canMark, skipReasons 
     } finally {
       flushing.current = false;
     }
-  }, []);
+    if (dayTouched) void refreshDay();
+  }, [refreshDay, sheet.date, sheet.farrier.id]);
 
   useEffect(() => {
     setQueue(readQueue());
@@ -154,8 +183,17 @@ export default function DaySheet({ sheet, timeZone, units, canMark, skipReasons 
     };
   }, [flush]);
 
+  const markDay = (kind: 'start' | 'end', odometer: number | null) => {
+    const entry: QueuedDayMark = { clientKey: newClientKey(), kind, date: sheet.date, farrierId: sheet.farrier.id, at: new Date().toISOString(), odometer };
+    const list = [...readQueue(), entry];
+    writeQueue(list);
+    setQueue(list);
+    setProblem(null);
+    void flush();
+  };
+
   const mark = (stopId: number, state: MarkState, skipReason?: string) => {
-    const entry: QueuedMark = { clientKey: newClientKey(), stopId, state, at: new Date().toISOString(), skipReason: skipReason ?? null };
+    const entry: QueuedStopMark = { clientKey: newClientKey(), stopId, state, at: new Date().toISOString(), skipReason: skipReason ?? null };
     const list = [...readQueue(), entry];
     writeQueue(list);
     setQueue(list);
@@ -166,7 +204,8 @@ export default function DaySheet({ sheet, timeZone, units, canMark, skipReasons 
   const horses = sheet.stops.reduce((n, s) => n + s.horses.length, 0);
   const doneCount = sheet.stops.filter((s) => marks.get(s.id)?.state === 'done').length;
   const nextStop = sheet.stops.find((s) => !marks.has(s.id) || marks.get(s.id)?.state === 'arrived');
-  const waiting = queue.filter((q) => stopIds.has(q.stopId)).length;
+  const waiting = queue.filter((q) => (isDayMark(q) ? isMine(q) : stopIds.has(q.stopId))).length;
+  const dayQueued = queue.filter(isMine);
 
   return (
     <div className="day-sheet mx-auto max-w-xl text-lg">
@@ -183,6 +222,20 @@ export default function DaySheet({ sheet, timeZone, units, canMark, skipReasons 
         </p>
         {sheet.route.overtimeSeconds > 0 && <p className="caution mt-2 text-base">Planned overtime <span className="figure">{duration(sheet.route.overtimeSeconds)}</span>: take your break and watch for tiredness on the drive home.</p>}
       </section>
+
+      <DayMarks
+        confirmed={confirmedDay}
+        queued={dayQueued}
+        anyStopMarked={marks.size > 0}
+        firstStopPosition={sheet.stops[0]?.position ?? 1}
+        plannedStartAt={sheet.route.startAt}
+        plannedEndAt={sheet.route.endAt}
+        plannedDistanceM={sheet.route.distanceM}
+        timeZone={timeZone}
+        units={units}
+        canMark={canMark}
+        onMark={markDay}
+      />
 
       {canMark && (
         <p role="status" data-testid="sync-status" className={`no-print mt-3 rounded-lg px-3 py-2 text-base font-semibold ${waiting ? 'bg-hay-200 text-slateblue-900' : 'bg-white text-slateblue-700'}`}>

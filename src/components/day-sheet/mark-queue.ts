@@ -1,10 +1,12 @@
 /**
  * The day sheet's offline queue of marks, kept in localStorage so that a mark survives a dead spot,
  * a closed tab and a reload. Each mark has a random key made once on the phone; the server treats a
- * second delivery of that key as a replay, so sending the queue again can never double a mark.
+ * second delivery of that key as a replay, so sending the queue again can never double a mark. Stop
+ * marks (arrived, done, skipped) and day marks (Start the day, Back home) share one queue, sent in
+ * the order they were made, so a start always reaches the server before the stops and the end.
  */
 
-export interface QueuedMark {
+export interface QueuedStopMark {
   clientKey: string;
   stopId: number;
   state: 'arrived' | 'done' | 'skipped';
@@ -12,7 +14,24 @@ export interface QueuedMark {
   skipReason?: string | null;
 }
 
+/** "Start the day" (leaving home) or "Back home", with the odometer in whole miles or km if given. */
+export interface QueuedDayMark {
+  clientKey: string;
+  kind: 'start' | 'end';
+  date: string;
+  farrierId: number;
+  at: string;
+  odometer?: number | null;
+}
+
+export type QueuedMark = QueuedStopMark | QueuedDayMark;
+
 const KEY = 'roundsmith.day-sheet.marks.v1';
+
+/** Day marks carry a kind; queue entries stored before day marks existed are stop marks. */
+export function isDayMark(mark: QueuedMark): mark is QueuedDayMark {
+  return 'kind' in mark && (mark.kind === 'start' || mark.kind === 'end');
+}
 
 /** A 32-character random key (hex), from the browser's crypto (works on plain http too). */
 export function newClientKey(): string {
@@ -39,13 +58,13 @@ export function writeQueue(list: QueuedMark[]): void {
   }
 }
 
-export type SendOutcome = { ok: true } | { ok: false; retry: boolean; message: string };
+export type SendOutcome = { ok: true; body: unknown } | { ok: false; retry: boolean; message: string };
 
 /** Sends one mark; a network failure or a 5xx is worth retrying, a 4xx is not. */
 export async function sendMark(mark: QueuedMark): Promise<SendOutcome> {
   let response: Response;
   try {
-    response = await fetch('/api/visits', {
+    response = await fetch(isDayMark(mark) ? '/api/day-logs' : '/api/visits', {
       method: 'POST',
       headers: { 'content-type': 'application/json', accept: 'application/json' },
       credentials: 'same-origin',
@@ -54,7 +73,15 @@ export async function sendMark(mark: QueuedMark): Promise<SendOutcome> {
   } catch {
     return { ok: false, retry: true, message: 'No connection' };
   }
-  if (response.ok) return { ok: true };
+  if (response.ok) {
+    let body: unknown = null;
+    try {
+      body = await response.json();
+    } catch {
+      // an empty answer is still a success
+    }
+    return { ok: true, body };
+  }
   let message = `The server answered ${response.status}`;
   try {
     const body = (await response.json()) as { error?: { message?: string } };

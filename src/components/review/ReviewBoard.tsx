@@ -242,6 +242,10 @@ function ReviewBody({ data, mode, farrierId, onFarrier }: { data: ReviewResult; 
             </tr>
           </tfoot>
         </table>
+        <p className="px-3 py-2 text-xs text-slateblue-600" data-testid="distance-source-note">
+          Actual distance is measured when the farrier gave odometer readings at Start the day and Back home.
+          <span className="font-semibold"> Days at planned distance</span> had no readings, so they count the planned route's distance.
+        </p>
       </section>
 
       {selected && <FarrierDays data={data} farrierId={selected.farrierId} onClose={() => onFarrier(null)} />}
@@ -299,7 +303,10 @@ function FarrierDays({ data, farrierId, onClose }: { data: ReviewResult; farrier
                 <td className="figure px-3 py-2 text-right">{formatMinutes(row!.actualMinutes)}</td>
                 <td className={`figure px-3 py-2 text-right ${row!.overtimeMinutes > 0 ? 'text-ember-700' : ''}`}>{formatMinutes(row!.overtimeMinutes)}</td>
                 <td className="figure px-3 py-2 text-right">{row!.plannedDistance.toFixed(1)}</td>
-                <td className="figure px-3 py-2 text-right">{row!.actualDistance.toFixed(1)}</td>
+                <td className="figure px-3 py-2 text-right" data-distance-source={row!.actualDistanceSource ?? ''}>
+                  {row!.actualDistance.toFixed(1)}
+                  {row!.actualDistanceSource && <span className="ml-1 font-sans text-xs text-slateblue-500">{row!.actualDistanceSource === 'odometer' ? 'odometer' : 'planned'}</span>}
+                </td>
                 <td className="px-3 py-2 text-right"><a className="text-ember-700 underline" href={`/review/day/${date}?farrier=${farrierId}`}>Open day</a></td>
               </tr>
             ))}

@@ -5,6 +5,7 @@
  */
 import type { Knex } from 'knex';
 import { directions, getRoadGraph } from '../routing/index.ts';
+import { dayLogsOf, type DayLogView } from './day-logs.ts';
 
 export interface DaySheetStep {
   text: string;
@@ -76,6 +77,8 @@ export interface DaySheet {
   route: { id: number; startAt: string; endAt: string; driveSeconds: number; distanceM: number; workSeconds: number; overtimeSeconds: number; breakStartAt: string | null };
   stops: DaySheetStop[];
   homeLeg: DaySheetLeg;
+  /** The farrier's day log (Start the day / Back home, odometer readings), null before the day starts. */
+  dayLog: DayLogView | null;
 }
 
 const iso = (d: Date | string | null): string | null => (d ? new Date(d).toISOString() : null);
@@ -202,5 +205,6 @@ export async function loadDaySheet(
     },
     stops,
     homeLeg,
+    dayLog: (await dayLogsOf(db, opts.practiceId, opts.date, opts.farrierId))[0] ?? null,
   };
 }

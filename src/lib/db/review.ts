@@ -51,9 +51,9 @@ export async function loadReviewInput(db: Knex, practice: Practice, from: IsoDat
   const dayRows = await db('day_logs')
     .where({ practice_id: practiceId })
     .whereBetween('work_date', [readFrom, readTo])
-    .select('farrier_id', 'work_date', 'started_at', 'ended_at', 'distance_m');
+    .select('farrier_id', 'work_date', 'started_at', 'ended_at', 'distance_m', 'distance_source');
   const actual: ActualDayInput[] = dayRows.map((d) => ({
-    farrierId: d.farrier_id, date: d.work_date, startedAt: d.started_at, endedAt: d.ended_at, distanceM: d.distance_m,
+    farrierId: d.farrier_id, date: d.work_date, startedAt: d.started_at, endedAt: d.ended_at, distanceM: d.distance_m, distanceSource: d.distance_source ?? null,
   }));
 
   const horseSums = db('visit_log_horses').select('visit_log_id').count({ horses: '*' }).sum({ revenue: 'revenue_cents' }).groupBy('visit_log_id').as('vh');

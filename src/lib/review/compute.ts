@@ -33,6 +33,11 @@ export interface ActualDayInput {
   startedAt: Date;
   endedAt: Date | null;
   distanceM: number | null;
+  /**
+   * Where distance_m came from: 'odometer' (the farrier's readings), 'planned' (no readings, so the
+   * published route's distance), null or absent when not recorded (logs from before the day sheet's marks).
+   */
+  distanceSource?: 'odometer' | 'planned' | null;
 }
 
 /** One visit_logs row with its horses. */
@@ -81,6 +86,8 @@ export interface ReviewFigures {
   revenue: number;
   daysPlanned: number;
   daysWorked: number;
+  /** Days worked whose actual distance is the planned route's, because no odometer pair was given. */
+  plannedDistanceDays: number;
 }
 
 export interface ReviewFarrier extends ReviewFigures {
@@ -97,6 +104,8 @@ export interface ReviewDayFarrier {
   overtimeMinutes: number;
   plannedDistance: number;
   actualDistance: number;
+  /** Where the actual distance came from (see ActualDayInput.distanceSource); null with no day log. */
+  actualDistanceSource: 'odometer' | 'planned' | null;
 }
 
 /** One farrier's whole workweek, for the chart of hours against the weekly overtime line. */
@@ -207,6 +216,7 @@ export function computeReview(input: ReviewInput): ReviewResult {
       revenue: money(visits.reduce((s, v) => s + (v.state === 'done' ? v.revenueCents : 0), 0)),
       daysPlanned: plannedIn.length,
       daysWorked: actualIn.length,
+      plannedDistanceDays: actualIn.filter((a) => a.distanceSource === 'planned').length,
     });
 
     // Per day (in range) and per whole workweek (for the chart against the weekly line).
@@ -239,6 +249,7 @@ export function computeReview(input: ReviewInput): ReviewResult {
         overtimeMinutes: minutes(a ? overtimeSecOf(a) : 0),
         plannedDistance: units1(plannedRow ? distanceTenths(plannedRow.distanceM, units) : 0),
         actualDistance: units1(actualRow ? distanceTenths(actualDistanceM(actualRow), units) : 0),
+        actualDistanceSource: actualRow?.distanceSource ?? null,
       });
       perDay.set(date, dayList);
     }
@@ -248,7 +259,7 @@ export function computeReview(input: ReviewInput): ReviewResult {
   const figureKeys: (keyof ReviewFigures)[] = [
     'plannedMinutes', 'actualMinutes', 'plannedOvertimeMinutes', 'overtimeMinutes', 'plannedOvertimeCost', 'overtimeCost',
     'driveMinutes', 'plannedDistance', 'actualDistance', 'plannedMileageCost', 'mileageCost', 'stopsPlanned', 'stopsSkipped',
-    'horsesPlanned', 'horsesDone', 'plannedRevenue', 'revenue', 'daysPlanned', 'daysWorked',
+    'horsesPlanned', 'horsesDone', 'plannedRevenue', 'revenue', 'daysPlanned', 'daysWorked', 'plannedDistanceDays',
   ];
   const scale: Partial<Record<keyof ReviewFigures, number>> = {
     plannedOvertimeCost: 100, overtimeCost: 100, plannedMileageCost: 100, mileageCost: 100, plannedRevenue: 100, revenue: 100,

@@ -22,6 +22,8 @@ export const REVIEW_COLUMNS: ReviewColumn[] = [
   { key: 'plannedDistance', label: 'Planned distance', kind: 'distance', group: 'Distance' },
   { key: 'actualDistance', label: 'Actual distance', kind: 'distance', group: 'Distance' },
   { key: 'mileageCost', label: 'Mileage cost', kind: 'money', group: 'Distance' },
+  // Days whose actual distance is the planned route's (no odometer readings on the day sheet): not measured.
+  { key: 'plannedDistanceDays', label: 'Days at planned distance', kind: 'count', group: 'Distance' },
   { key: 'horsesPlanned', label: 'Horses planned', kind: 'count', group: 'Work' },
   { key: 'horsesDone', label: 'Horses done', kind: 'count', group: 'Work' },
   { key: 'stopsSkipped', label: 'Stops skipped', kind: 'count', group: 'Work' },
