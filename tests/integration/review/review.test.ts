@@ -101,7 +101,9 @@ beforeAll(async () => {
   knex = appDatabase();
   lead = await sessionCookie('lead@demo.test');
   // The last three whole Monday weeks of the seeded history (the demo practice's weeks start on Monday).
-  const last = (await knex('day_logs').where({ practice_id: 1 }).max({ d: 'work_date' }).first())!.d as string;
+  // Seeded history ends before today; other tests write day logs on days of their own in the future.
+  const today = new Intl.DateTimeFormat('en-CA', { timeZone: 'America/New_York', year: 'numeric', month: '2-digit', day: '2-digit' }).format(new Date());
+  const last = (await knex('day_logs').where({ practice_id: 1 }).andWhere('work_date', '<', today).max({ d: 'work_date' }).first())!.d as string;
   const monday = addDays(last, -((new Date(`${last}T00:00:00Z`).getUTCDay() + 6) % 7));
   weeks = [1, 2, 3].map((k) => ({ from: addDays(monday, -7 * k), to: addDays(monday, -7 * k + 6) }));
 });
