@@ -43,13 +43,30 @@ describe('the day sheet in a browser', () => {
     expect((await fakeTextsTo(PHONES.consenting))[0]!.body).toContain('Pepper and Dill');
   });
 
-  it('a farrier on a phone opens the sheet, sees directions, marks the first stop done, offline marks follow on reconnect, and the dispatcher sees it', async () => {
+  it('a farrier on a phone starts the day with an odometer reading, marks the first stop done, offline marks follow on reconnect, comes back home with a reading, and the dispatcher and the review see it', async () => {
     const browser = await launch({ viewport: { width: 390, height: 844 }, isMobile: true });
     try {
       const { page, context } = browser;
       await signIn(page, 'farrier4@demo.test');
+      // The phone's clock on the day itself, so every mark carries a time of that day.
+      await page.clock.setFixedTime(new Date(`${DATE}T12:05:00Z`));
       await page.goto(`${APP_URL}/day/${DATE}`);
       await hydrated(page);
+
+      // Leaving home: Start the day with the odometer as written in the mileage log.
+      const marks = page.locator('[data-testid="day-marks"]');
+      await expect(marks.textContent()).resolves.toContain('mileage log for tax is your own record');
+      await expect(marks.textContent()).resolves.toContain('Driving hours and tiredness');
+      await page.evaluate(() => document.querySelector('section[aria-label="Day totals"]')?.scrollIntoView({ block: 'start' }));
+      await screenshot(page, 'day-sheet-phone-start');
+      await marks.locator('#odometer').fill('45 210');
+      await marks.getByRole('button', { name: 'Start the day' }).click();
+      await page.waitForFunction(() => document.querySelector('[data-testid="day-marks"]')?.getAttribute('data-day-state') === 'started');
+      await page.waitForFunction(() => document.querySelector('[data-testid="sync-status"]')?.textContent?.includes('all marks sent'));
+      await expect(marks.textContent()).resolves.toMatch(/Left home 8:05am · odometer 45,210 mi/);
+      await page.evaluate(() => document.querySelector('section[aria-label="Day totals"]')?.scrollIntoView({ block: 'start' }));
+      await screenshot(page, 'day-sheet-phone-started');
+      await page.clock.setFixedTime(new Date(`${DATE}T13:45:00Z`));
       const first = page.locator(`[data-stop-id="${day.stopIds[0]}"]`);
       await expect(first.locator('details.directions ol li').first().textContent()).resolves.toMatch(/Set off|Turn|Bear|Keep|Go straight/);
       await expect(first.textContent()).resolves.toContain('Hot fit: burns');
@@ -61,6 +78,7 @@ describe('the day sheet in a browser', () => {
       await page.waitForFunction(() => document.querySelector('[data-testid="sync-status"]')?.textContent?.includes('all marks sent'));
 
       // The connection drops: a mark stays queued on the phone, then goes once the signal is back.
+      await page.clock.setFixedTime(new Date(`${DATE}T15:05:00Z`));
       await context.setOffline(true);
       const second = page.locator(`[data-stop-id="${day.stopIds[1]}"]`);
       await second.getByRole('button', { name: 'Arrived' }).click();
@@ -76,6 +94,20 @@ describe('the day sheet in a browser', () => {
       expect(await knex('visit_logs').where({ stop_id: day.stopIds[1] })).toHaveLength(1);
       expect(await knex('visit_logs').where({ stop_id: day.stopIds[0] })).toHaveLength(1);
 
+      // Back home with the evening's reading: 45,262 − 45,210 = 52 mi.
+      await page.clock.setFixedTime(new Date(`${DATE}T18:40:00Z`));
+      await marks.locator('#odometer').fill('45262');
+      await marks.getByRole('button', { name: 'Back home' }).click();
+      await page.waitForFunction(() => document.querySelector('[data-testid="day-marks"]')?.getAttribute('data-day-state') === 'ended');
+      await page.waitForFunction(() => document.querySelector('[data-testid="sync-status"]')?.textContent?.includes('all marks sent'));
+      await expect(marks.textContent()).resolves.toMatch(/Back home 2:40pm · odometer 45,262 mi · 6 h 35 min out/);
+      await expect(marks.textContent()).resolves.toContain('52 mi by odometer');
+      await page.evaluate(() => document.querySelector('section[aria-label="Day totals"]')?.scrollIntoView({ block: 'start' }));
+      await screenshot(page, 'day-sheet-phone-home');
+      const log = await knex('day_logs').where({ farrier_id: day.farrierId, work_date: DATE }).first();
+      // 52 × 1,609.344 m = 83,685.888 m → 83,686 m (international mile, 1959 agreement).
+      expect(log).toMatchObject({ start_odometer: 45_210, end_odometer: 45_262, distance_m: 83_686, distance_source: 'odometer', start_source: 'marked' });
+
       await page.emulateMedia({ media: 'print' });
       await page.screenshot({ path: '.data/screenshots/day-sheet-print.png', fullPage: true });
       await page.emulateMedia({ media: 'screen' });
@@ -87,6 +119,13 @@ describe('the day sheet in a browser', () => {
     const route = progress.body.routes.find((r: { farrierId: number }) => r.farrierId === day.farrierId);
     expect(route.stops[0].state).toBe('done');
     expect(route.stops[1].state).toBe('arrived');
+
+    // The lead's review of that week (Monday 12 July 2027) counts the marked day.
+    const review = await call('GET', '/api/review?from=2027-07-12&to=2027-07-18', { cookie: await sessionCookie('lead@demo.test') });
+    expect(review.status).toBe(200);
+    const row = review.body.farriers.find((f: { farrierId: number }) => f.farrierId === day.farrierId);
+    // 12:05Z → 18:40Z = 6 h 35 min = 395 min (the route has no break); 83,686 m / 1,609.344 = 52.0 mi, measured.
+    expect(row).toMatchObject({ actualMinutes: 395, actualDistance: 52, plannedDistanceDays: 0, daysWorked: 1 });
   });
 
   it('the dispatcher sees the texts on the Messages page', async () => {
