@@ -1,12 +1,17 @@
 import type { PlanWarning } from '../../schemas/plans.ts';
+import type { UnplannedReason } from '../solver/index.ts';
 
 /**
  * Dispatch's plain words: why a job is unplanned, what a hand edit breaks, and the short safety
  * cautions beside a job or route. Kept in one place so the board, the API and the tests agree.
  */
 
-/** Reasons the engine gives (see src/lib/solver/diagnose.ts) plus the dispatcher's own removal. */
-export const UNPLANNED_WORDS: Record<string, string> = {
+/**
+ * Reasons the engine gives (see src/lib/solver/diagnose.ts) plus dispatch's own. Typed over the
+ * engine's reason codes, so a code added there without words here fails the type check.
+ */
+export const UNPLANNED_WORDS: Record<UnplannedReason | 'barn_closed_today' | 'taken_off', string> = {
+  no_farrier_working: 'No farrier is working this day',
   pinned_farrier_unavailable: 'Pinned to a farrier who is not working this day',
   pinned_farrier_unfit: 'Pinned to a farrier without the forge or qualification this work needs',
   no_qualified_farrier: 'Needs a farrier qualified for therapeutic work; none is working this day',
@@ -23,7 +28,7 @@ export const UNPLANNED_WORDS: Record<string, string> = {
 };
 
 export function unplannedWords(reason: string): string {
-  return UNPLANNED_WORDS[reason] ?? 'Not planned';
+  return (UNPLANNED_WORDS as Record<string, string>)[reason] ?? 'Not planned';
 }
 
 export interface WarningContext {
