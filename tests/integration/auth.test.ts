@@ -1,6 +1,6 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { createHash } from 'node:crypto';
-import { call, sessionCookie } from './helpers/api.ts';
+import { APP_URL, call, sessionCookie } from './helpers/api.ts';
 import { appDatabase } from './helpers/db.ts';
 
 const db = appDatabase();
@@ -75,6 +75,17 @@ describe('sign-in, sessions and sign-out', () => {
     const hashed = createHash('sha256').update(cookie.split('=')[1]!).digest('hex');
     await db('user_sessions').where({ id: hashed }).update({ expires_at: new Date(Date.now() - 60_000) });
     expect((await call('GET', '/api/me', { cookie })).status).toBe(401);
+  });
+
+  it('refuses a cross-site form post (origin check), but accepts the same form from our own origin', async () => {
+    const form = 'email=lead%40demo.test&password=roundsmith-demo';
+    const headers = { 'content-type': 'application/x-www-form-urlencoded' };
+    const cross = await fetch(`${APP_URL}/sign-in`, { method: 'POST', body: form, redirect: 'manual', headers: { ...headers, origin: 'http://elsewhere.invalid' } });
+    expect(cross.status).toBe(403);
+    expect(cross.headers.get('set-cookie')).toBeNull();
+    const same = await fetch(`${APP_URL}/sign-in`, { method: 'POST', body: form, redirect: 'manual', headers: { ...headers, origin: APP_URL } });
+    expect(same.status).toBe(303);
+    expect(same.headers.get('set-cookie')).toMatch(/rs_session=/);
   });
 
   it('sends a signed-out visitor of a page to /sign-in and keeps where they were going', async () => {
