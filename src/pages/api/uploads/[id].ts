@@ -24,7 +24,7 @@ export const GET = route('signed-in', async (ctx, user) => {
     headers: {
       'content-type': thumb ? 'image/jpeg' : upload.mimeType,
       'content-length': String(bytes.length),
-      'content-disposition': `inline; filename="${upload.fileName.replace(/[^\x20-\x7e]/g, '_')}"`,
+      'content-disposition': `inline; filename="${upload.fileName.replace(/[^\x20-\x7e]|["\\]/g, '_')}"`,
       'x-content-type-options': 'nosniff',
       'cache-control': 'private, max-age=3600',
     },
