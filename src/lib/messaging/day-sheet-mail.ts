@@ -61,7 +61,7 @@ export async function emailDaySheets(db: Knex, { practiceId, planId }: { practic
       '',
       link,
       '',
-      'Open it on your phone before you set off: it keeps working without a signal, and marks you make offline are sent when you are back in range.',
+      'Open it on your phone before you set off and keep the page open: it keeps working without a signal, and marks you make offline are sent when you are back in range.',
       '',
       practice.name,
     ].join('\n');
