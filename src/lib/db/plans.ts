@@ -331,31 +331,54 @@ export async function loadRoutes(db: Db, practiceId: number, planId: number): Pr
   }));
 }
 
+/** Multi-row INSERT … RETURNING (MariaDB 10.5+): one round trip, and each row's id paired with its own key columns. */
+async function insertReturning<T>(db: Db, table: string, rows: Record<string, unknown>[], returning: string[]): Promise<T[]> {
+  const { sql, bindings } = db(table).insert(rows).toSQL().toNative();
+  const [result] = (await db.raw(`${sql} returning ${returning.map((c) => `\`${c}\``).join(', ')}`, bindings)) as [T[]];
+  return result;
+}
+
 /**
  * Replaces the routes of the given farriers in a plan: old routes (and by cascade their stops and
- * stop_jobs) are deleted, new ones written. Stops are inserted one at a time so each id is the one the
- * insert returned.
+ * stop_jobs) are deleted, new ones written. Routes, stops and stop_jobs are each one multi-row insert;
+ * the ids come back from INSERT … RETURNING with the farrier (route) or route and position (stop) they
+ * belong to, so every id used is the one the database returned for that row.
  */
 export async function replaceRoutes(db: Db, practiceId: number, planId: number, routes: RouteWrite[]): Promise<void> {
   if (routes.length === 0) return;
   await db('routes').where({ plan_id: planId, practice_id: practiceId }).whereIn('farrier_id', routes.map((r) => r.farrierId)).delete();
-  for (const r of routes) {
-    const [routeId] = await db('routes').insert({
+  const routeIds = new Map(
+    (await insertReturning<{ id: number; farrier_id: number }>(db, 'routes', routes.map((r) => ({
       practice_id: practiceId, plan_id: planId, farrier_id: r.farrierId, start_at: r.startAt, end_at: r.endAt,
       drive_seconds: r.driveSeconds, distance_m: r.distanceM, work_seconds: r.workSeconds, overtime_seconds: r.overtimeSeconds,
       break_start_at: r.breakStartAt,
-    });
-    const stopJobs: Record<string, unknown>[] = [];
+    })), ['id', 'farrier_id'])).map((row) => [row.farrier_id, row.id]),
+  );
+  const stopRows: Record<string, unknown>[] = [];
+  for (const r of routes) {
+    const routeId = routeIds.get(r.farrierId)!;
     for (const s of r.stops) {
-      const [stopId] = await db('stops').insert({
+      stopRows.push({
         practice_id: practiceId, route_id: routeId, position: s.position, barn_id: s.barnId, arrival_at: s.arrivalAt, start_at: s.startAt,
         departure_at: s.departureAt, leg_drive_seconds: s.legDriveSeconds, leg_distance_m: s.legDistanceM,
         window_start_at: s.windowStartAt, window_end_at: s.windowEndAt,
       });
+    }
+  }
+  if (stopRows.length === 0) return;
+  const stopIds = new Map(
+    (await insertReturning<{ id: number; route_id: number; position: number }>(db, 'stops', stopRows, ['id', 'route_id', 'position']))
+      .map((row) => [`${row.route_id}|${row.position}`, row.id]),
+  );
+  const stopJobs: Record<string, unknown>[] = [];
+  for (const r of routes) {
+    const routeId = routeIds.get(r.farrierId)!;
+    for (const s of r.stops) {
+      const stopId = stopIds.get(`${routeId}|${s.position}`)!;
       s.jobIds.forEach((jobId, i) => stopJobs.push({ stop_id: stopId, job_id: jobId, plan_id: planId, position: i + 1 }));
     }
-    if (stopJobs.length) await db('stop_jobs').insert(stopJobs);
   }
+  if (stopJobs.length) await db('stop_jobs').insert(stopJobs);
 }
 
 /** Locks jobs and returns their states, so a write can refuse jobs another plan took meanwhile. */

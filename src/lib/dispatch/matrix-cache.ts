@@ -32,7 +32,7 @@ export function dayMatrix(points: readonly { lat: number; lon: number }[]): DayM
   let complete = true;
   for (let i = 0; i < n && complete; i++) {
     for (let j = 0; j < n; j++) {
-      if (i === j) continue;
+      if (i === j || (points[i]!.lat === points[j]!.lat && points[i]!.lon === points[j]!.lon)) continue;
       const hit = cache.get(`${keys[i]}|${keys[j]}`);
       if (!hit) { complete = false; break; }
       durationSec[i]![j] = hit[0];
@@ -41,11 +41,33 @@ export function dayMatrix(points: readonly { lat: number; lon: number }[]): DayM
   }
   const fallbackKey = (k: string) => cache!.get(`${k}|fallback`);
   if (complete) return { durationSec, distanceM, fallback: keys.map((k) => fallbackKey(k)?.[0] === 1), cached: true };
-  const m = buildMatrix(graph, points);
+  // One search per distinct place: farriers sharing a yard, or barns at one address, are routed once.
+  const slot = new Map<string, number>();
+  const unique: { lat: number; lon: number }[] = [];
+  const slotOf = points.map((p, i) => {
+    const k = `${p.lat},${p.lon}`;
+    let u = slot.get(k);
+    if (u === undefined) {
+      slot.set(k, (u = unique.length));
+      unique.push(points[i]!);
+    }
+    return u;
+  });
+  const m = buildMatrix(graph, unique);
   if (cache.size > MAX_PAIRS) cache.clear();
+  const fallback = slotOf.map((u) => m.fallback[u]!);
   for (let i = 0; i < n; i++) {
-    cache.set(`${keys[i]}|fallback`, [m.fallback[i] ? 1 : 0, 0]);
-    for (let j = 0; j < n; j++) if (i !== j) cache.set(`${keys[i]}|${keys[j]}`, [m.durationSec[i]![j]!, m.distanceM[i]![j]!]);
+    const rowT = m.durationSec[slotOf[i]!]!;
+    const rowD = m.distanceM[slotOf[i]!]!;
+    for (let j = 0; j < n; j++) {
+      if (i === j) continue;
+      durationSec[i]![j] = rowT[slotOf[j]!]!;
+      distanceM[i]![j] = rowD[slotOf[j]!]!;
+    }
   }
-  return { durationSec: m.durationSec, distanceM: m.distanceM, fallback: m.fallback, cached: false };
+  for (let i = 0; i < n; i++) {
+    cache.set(`${keys[i]}|fallback`, [fallback[i] ? 1 : 0, 0]);
+    for (let j = 0; j < n; j++) if (i !== j) cache.set(`${keys[i]}|${keys[j]}`, [durationSec[i]![j]!, distanceM[i]![j]!]);
+  }
+  return { durationSec, distanceM, fallback, cached: false };
 }

@@ -16,6 +16,9 @@ import { queueOwnerMessages } from './publish.ts';
 import { windowSettings, type WindowSettings } from './arrival-window.ts';
 import { routeWrite, warningsFor } from './retime.ts';
 import { addDays, isoWeekday } from './time.ts';
+import { warmDispatch } from './warm.ts';
+
+warmDispatch();
 
 /**
  * Dispatch's server side: plan a day with the engine in a worker thread, re-time hand edits, re-plan
@@ -38,12 +41,33 @@ interface Day {
   homeIndex: Map<number, number>;
 }
 
+/**
+ * Where the time of one planning request goes, in milliseconds: database reads, the drive matrix, the
+ * engine's problem, the worker round trip (engine time inside it), the checker and row building, and
+ * the one write transaction. The plans endpoint sends these as Server-Timing so a bench can see them.
+ */
+export interface PlanTimings {
+  readMs?: number;
+  matrixMs?: number;
+  problemMs?: number;
+  solveMs?: number;
+  engineMs?: number;
+  checkMs?: number;
+  writeMs?: number;
+}
+
 /** Builds the engine's problem for a set of farriers and jobs on a date (matrix from memory where it can). */
-async function loadDay(db: Knex | Knex.Transaction, practice: Practice, date: string, farriers: DayFarrier[], jobs: DayJob[]): Promise<Day> {
+async function loadDay(
+  db: Knex | Knex.Transaction, practice: Practice, date: string, farriers: DayFarrier[], jobs: DayJob[],
+  lap: (phase: 'readMs' | 'matrixMs' | 'problemMs') => void = () => {},
+): Promise<Day> {
   const barns = await listDayBarns(db, practice.id, [...new Set(jobs.map((j) => j.barnId))]);
+  lap('readMs');
   const places = dayPlaces(farriers, barns);
   const matrix = dayMatrix(places.points);
+  lap('matrixMs');
   const problem = createProblem(buildDayProblem({ date, practice, farriers, jobs, barns, places, matrix }));
+  lap('problemMs');
   return { date, farriers, jobs, barns, problem, homeIndex: places.homeIndex };
 }
 
@@ -91,9 +115,16 @@ export async function planDay(
   knex: Knex,
   practice: Practice,
   actor: Actor,
-  input: { date: string; budgetSeconds: number; replan?: { planId: number; version: number } },
+  input: { date: string; budgetSeconds: number; replan?: { planId: number; version: number }; timings?: PlanTimings },
 ): Promise<number> {
   const { date, budgetSeconds } = input;
+  const timings = input.timings ?? {};
+  let mark = performance.now();
+  const lap = (phase: keyof PlanTimings) => {
+    const now = performance.now();
+    timings[phase] = (timings[phase] ?? 0) + (now - mark);
+    mark = now;
+  };
   if (!input.replan && (await getPlanByDate(knex, practice.id, date))) {
     throw conflict(`A plan for ${date} exists already: open it, or re-plan it`);
   }
@@ -114,11 +145,14 @@ export async function planDay(
     const weekday = isoWeekday(date);
     const closed = new Set(barnsAll.filter((b) => barnClosedOn(b, weekday)).map((b) => b.id));
     const jobs = allJobs.filter((j) => !closed.has(j.barnId));
-    const day = await loadDay(knex, practice, date, farriers, jobs);
+    lap('readMs');
+    const day = await loadDay(knex, practice, date, farriers, jobs, lap);
     updateRun(practice.id, date, { phase: 'construct' });
     const result = await solveInWorker(day.problem, { seed: 1, stop: { maxSeconds: budgetSeconds } }, {
       onProgress: (p) => updateRun(practice.id, date, { iterations: p.iterations, unplanned: p.unplanned, farriersUsed: p.farriersUsed, phase: p.phase }),
     });
+    lap('solveMs');
+    timings.engineMs = result.statistics.seconds * 1000;
     updateRun(practice.id, date, { phase: 'saving' });
     // The stored times are the checker's own re-timing of the engine's order, so what is saved is what is checked.
     const check = checkSolution(day.problem, { routes: result.routes.map((r) => ({ farrierId: r.farrierId, jobIds: r.stops.flatMap((s) => s.jobIds) })) });
@@ -137,7 +171,8 @@ export async function planDay(
       seed: result.statistics.seed,
     };
     const planned = writes.flatMap((w) => w.stops.flatMap((s) => s.jobIds));
-    return await knex.transaction(async (trx) => {
+    lap('checkMs');
+    const planId = await knex.transaction(async (trx) => {
       let planId: number;
       let state: 'draft' | 'published' = 'draft';
       if (existing) {
@@ -167,6 +202,8 @@ export async function planDay(
       });
       return planId;
     });
+    lap('writeMs');
+    return planId;
   } finally {
     finishRun(practice.id, date);
   }

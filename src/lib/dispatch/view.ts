@@ -5,6 +5,9 @@ import { directions, getRoadGraph } from '../routing/index.ts';
 import type { PlanJobView, PlanRouteView, PlanView, PlanWarning } from '../../schemas/plans.ts';
 import { isoLocal } from './time.ts';
 import { jobCautions, routeCautions, unplannedWords } from './words.ts';
+import { warmDispatch } from './warm.ts';
+
+warmDispatch();
 
 /**
  * A stored plan as the API answers it: times in ISO 8601 with the practice's offset, distances in the

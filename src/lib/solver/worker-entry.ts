@@ -1,21 +1,43 @@
 /**
  * Worker-thread entry for `solveInWorker`: validates the problem again (it arrives as a plain
  * structured-clone copy), runs the search, streams progress, and polls the shared stop flag.
+ *
+ * Two ways in. Started with a `problem` in workerData it solves that one problem (a one-off worker).
+ * Started with `{ persistent: true }` it stays up and solves each `{ type: 'solve', runId, … }` message
+ * in turn, so a warm worker (modules loaded, code compiled) is ready before the dispatcher asks.
  */
 import { parentPort, workerData } from 'node:worker_threads';
 import { createProblem } from './problem';
 import { solve, type SolveOptions } from './solve';
 
-const data = workerData as { problem: unknown; opts: Omit<SolveOptions, 'onProgress' | 'shouldStop'>; stopFlag: Int32Array; wantProgress: boolean };
-try {
-  const problem = createProblem(data.problem);
-  const result = solve(problem, {
-    ...data.opts,
-    shouldStop: () => Atomics.load(data.stopFlag, 0) === 1,
-    onProgress: data.wantProgress ? (progress) => parentPort!.postMessage({ type: 'progress', progress }) : undefined,
+interface SolveJob {
+  problem: unknown;
+  opts: Omit<SolveOptions, 'onProgress' | 'shouldStop'>;
+  stopFlag: Int32Array;
+  wantProgress: boolean;
+}
+
+function run(job: SolveJob, runId?: number): void {
+  try {
+    const problem = createProblem(job.problem);
+    const result = solve(problem, {
+      ...job.opts,
+      shouldStop: () => Atomics.load(job.stopFlag, 0) === 1,
+      onProgress: job.wantProgress ? (progress) => parentPort!.postMessage({ type: 'progress', runId, progress }) : undefined,
+    });
+    parentPort!.postMessage({ type: 'result', runId, result });
+  } catch (e) {
+    const err = e as Error;
+    parentPort!.postMessage({ type: 'error', runId, error: { name: err.name, message: err.message } });
+  }
+}
+
+const data = workerData as (SolveJob & { persistent?: false }) | { persistent: true };
+if (data.persistent) {
+  parentPort!.on('message', (msg: SolveJob & { type: string; runId: number }) => {
+    if (msg.type === 'solve') run(msg, msg.runId);
   });
-  parentPort!.postMessage({ type: 'result', result });
-} catch (e) {
-  const err = e as Error;
-  parentPort!.postMessage({ type: 'error', error: { name: err.name, message: err.message } });
+  parentPort!.postMessage({ type: 'ready' });
+} else {
+  run(data);
 }

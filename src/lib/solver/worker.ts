@@ -33,6 +33,58 @@ export class SolveCancelledError extends Error {
   }
 }
 
+/** The default entry: src/lib/solver/worker-entry.ts under the project root. */
+function defaultEntry(): string {
+  return path.join(process.cwd(), 'src', 'lib', 'solver', 'worker-entry.ts');
+}
+
+function startWorker(entry: string, workerData: unknown): Worker {
+  return entry.endsWith('.ts') ? new Worker(bootstrap(entry), { eval: true, workerData }) : new Worker(entry, { workerData });
+}
+
+/**
+ * Warm workers for the default entry, waiting for their next problem. Starting a worker means loading
+ * tsx and compiling the engine inside it, which costs about a second on a busy machine; a persistent
+ * worker pays that once, so a plan request spends its time on the search. At most one waits; a second
+ * run at the same moment starts its own worker, which is then kept or ended.
+ */
+const idle: Worker[] = [];
+const MAX_IDLE = 1;
+let runSeq = 0;
+
+/** True when runs use the warm-worker pool: the default entry, not one chosen by option or environment. */
+const pooled = (w: WorkerSolveOptions) => !w.entry && !process.env.ROUNDSMITH_SOLVER_WORKER;
+
+function startPersistent(): Worker {
+  const worker = startWorker(defaultEntry(), { persistent: true });
+  const forget = () => {
+    const i = idle.indexOf(worker);
+    if (i >= 0) idle.splice(i, 1);
+  };
+  worker.on('error', forget);
+  worker.on('exit', forget);
+  return worker;
+}
+
+function park(worker: Worker): void {
+  if (idle.length >= MAX_IDLE) {
+    void worker.terminate();
+    return;
+  }
+  // An idle worker never keeps the process alive (CLIs, tests and a shutting-down server exit as usual).
+  worker.unref();
+  idle.push(worker);
+}
+
+/**
+ * Starts a warm worker now (if none waits), so the next `solveInWorker` with the default entry finds
+ * the engine loaded. Cheap to call again; does nothing when an entry is chosen through the environment.
+ */
+export function warmSolverWorker(): void {
+  if (process.env.ROUNDSMITH_SOLVER_WORKER || idle.length > 0) return;
+  park(startPersistent());
+}
+
 /**
  * Runs `solve` in a worker thread so that a long search never blocks a request or the event loop.
  * The entry file is resolved from the project root rather than this module's URL, because the Astro
@@ -40,7 +92,9 @@ export class SolveCancelledError extends Error {
  * worker's `execArgv: ['--import', 'tsx']` does not reach the worker's module loader (it fails with
  * "Unknown file extension .ts"), so a two-line bootstrap registers tsx's ESM hooks inside the worker
  * and then imports the TypeScript entry. Cancellation is cooperative through a shared flag the search
- * polls, so a cancelled run still returns its best plan.
+ * polls, so a cancelled run still returns its best plan. With the default entry the run goes to a warm
+ * worker (see `warmSolverWorker`) that stays up for the next run; a worker that had to be terminated
+ * (time limit passed) or failed is never reused.
  */
 export function solveInWorker(
   problem: Problem,
@@ -48,37 +102,55 @@ export function solveInWorker(
   w: WorkerSolveOptions = {},
 ): Promise<SolveResult> {
   if (w.signal?.aborted) return Promise.reject(new SolveCancelledError());
-  const entry = w.entry ?? process.env.ROUNDSMITH_SOLVER_WORKER ?? path.join(process.cwd(), 'src', 'lib', 'solver', 'worker-entry.ts');
   const stopFlag = new Int32Array(new SharedArrayBuffer(4));
+  const job = { problem: JSON.parse(JSON.stringify(problem)), opts, stopFlag, wantProgress: !!w.onProgress };
+  const warm = pooled(w);
+  const runId = ++runSeq;
+  let worker: Worker;
+  if (warm) {
+    worker = idle.shift() ?? startPersistent();
+    worker.ref();
+  } else {
+    worker = startWorker(w.entry ?? process.env.ROUNDSMITH_SOLVER_WORKER ?? defaultEntry(), job);
+  }
   return new Promise<SolveResult>((resolve, reject) => {
     let settled = false;
     let killTimer: NodeJS.Timeout | undefined;
-    const workerData = { problem: JSON.parse(JSON.stringify(problem)), opts, stopFlag, wantProgress: !!w.onProgress };
-    const worker = entry.endsWith('.ts') ? new Worker(bootstrap(entry), { eval: true, workerData }) : new Worker(entry, { workerData });
-    const finish = (fn: () => void) => {
+    const finish = (fn: () => void, reusable: boolean) => {
       if (settled) return;
       settled = true;
       if (killTimer) clearTimeout(killTimer);
       w.signal?.removeEventListener('abort', onAbort);
+      worker.off('message', onMessage);
+      worker.off('error', onError);
+      worker.off('exit', onExit);
       fn();
-      void worker.terminate();
+      if (warm && reusable) park(worker);
+      else void worker.terminate();
     };
     const armKill = (sec: number) => {
       if (killTimer) clearTimeout(killTimer);
-      killTimer = setTimeout(() => finish(() => reject(new SolveCancelledError('plan search did not answer in time'))), sec * 1000);
+      killTimer = setTimeout(() => finish(() => reject(new SolveCancelledError('plan search did not answer in time')), false), sec * 1000);
     };
     const onAbort = () => {
       Atomics.store(stopFlag, 0, 1);
       armKill(w.graceSeconds ?? 5);
     };
+    type Msg = { type: string; runId?: number; progress?: Progress; result?: SolveResult; error?: { name: string; message: string } };
+    const onMessage = (msg: Msg) => {
+      // A message without a run id is the bootstrap failing to start the worker at all.
+      if (msg.runId !== undefined && msg.runId !== runId && warm) return;
+      if (msg.type === 'progress' && msg.progress) w.onProgress?.(msg.progress);
+      else if (msg.type === 'result') finish(() => resolve(msg.result!), true);
+      else if (msg.type === 'error') finish(() => reject(Object.assign(new Error(msg.error!.message), { name: msg.error!.name })), msg.runId !== undefined);
+    };
+    const onError = (err: Error) => finish(() => reject(err), false);
+    const onExit = (code: number) => finish(() => reject(new Error(`plan worker exited with code ${code} before answering`)), false);
     w.signal?.addEventListener('abort', onAbort);
     if (opts.stop.maxSeconds !== undefined) armKill(opts.stop.maxSeconds + (w.graceSeconds ?? 10));
-    worker.on('message', (msg: { type: string; progress?: Progress; result?: SolveResult; error?: { name: string; message: string } }) => {
-      if (msg.type === 'progress' && msg.progress) w.onProgress?.(msg.progress);
-      else if (msg.type === 'result') finish(() => resolve(msg.result!));
-      else if (msg.type === 'error') finish(() => reject(Object.assign(new Error(msg.error!.message), { name: msg.error!.name })));
-    });
-    worker.on('error', (err) => finish(() => reject(err)));
-    worker.on('exit', (code) => finish(() => reject(new Error(`plan worker exited with code ${code} before answering`))));
+    worker.on('message', onMessage);
+    worker.on('error', onError);
+    worker.on('exit', onExit);
+    if (warm) worker.postMessage({ type: 'solve', runId, ...job });
   });
 }
