@@ -3,12 +3,13 @@
  *   npm run --silent bench -- --solomon FILE --seconds S [--seed N] --json
  *   npm run --silent bench -- --tsplib FILE --seconds S [--seed N] --json
  *   npm run bench -- --suite [--seconds-tsp 5] [--seconds-vrptw 30] [--seed N]
+ *   npm run bench -- --farrier-day [--seeds 1-5] [--seconds 3] [--reference-seconds 60]
  * Single-instance runs print one JSON object on stdout (nothing else); the suite prints a table of
  * published value, our value, gap and seconds, each result re-checked by an independent checker.
  */
 import { basename, resolve } from 'node:path';
 import { runSolomon, runTsplib } from './lib/runs';
-import { runSuite } from './lib/suite';
+import { runFarrierDay, runSuite } from './lib/suite';
 
 function arg(name: string): string | undefined {
   const i = process.argv.indexOf(name);
@@ -23,15 +24,41 @@ const num = (name: string, dflt: number) => {
   return n;
 };
 
+/** "1-5" or "1,3,7" → seed list. */
+function parseSeeds(v: string): number[] {
+  const out: number[] = [];
+  for (const part of v.split(',')) {
+    const m = part.match(/^(\d+)(?:-(\d+))?$/);
+    if (!m) throw new Error(`--seeds needs a list like 1-5 or 1,3,7, got ${v}`);
+    const a = Number(m[1]), b = m[2] === undefined ? a : Number(m[2]);
+    for (let x = a; x <= b; x++) out.push(x);
+  }
+  return out;
+}
+
 async function main() {
   const seed = num('--seed', 1);
   if (has('--suite')) {
     await runSuite({ secondsTsp: num('--seconds-tsp', 5), secondsVrptw: num('--seconds-vrptw', 30), seed, root: resolve(process.cwd(), '..', 'shared', 'benchmarks') });
     return;
   }
+  if (has('--farrier-day')) {
+    const seeds = parseSeeds(arg('--seeds') ?? String(seed));
+    const short = num('--seconds', 3), ref = num('--reference-seconds', 60);
+    const gaps: number[] = [];
+    for (const s of seeds) {
+      const r = runFarrierDay(s, short, ref);
+      process.stdout.write(`seed ${s}\n  ${r.lines[0]}\n  ${r.lines[1]}\n  ${short}-s result is ${r.gapPct.toFixed(2)} % above the ${ref}-s result\n`);
+      gaps.push(r.gapPct);
+      if (!r.feasible) process.exitCode = 1;
+    }
+    const mean = gaps.reduce((a, b) => a + b, 0) / gaps.length;
+    process.stdout.write(`seeds ${seeds.join(', ')}: gap mean ${mean.toFixed(2)} %, worst ${Math.max(...gaps).toFixed(2)} %\n`);
+    return;
+  }
   const solomon = arg('--solomon'), tsplib = arg('--tsplib');
   if (!solomon && !tsplib) {
-    process.stderr.write('usage: bench --solomon FILE | --tsplib FILE [--seconds S] [--seed N] [--json] | --suite\n');
+    process.stderr.write('usage: bench --solomon FILE | --tsplib FILE [--seconds S] [--seed N] [--json] | --suite | --farrier-day [--seeds 1-5]\n');
     process.exit(2);
   }
   if (solomon) {

@@ -25,6 +25,8 @@ export interface Model {
   eligible: Uint8Array;
   /** Pinned 1-based stop position, 0 when none. */
   pinPosition: Int32Array;
+  /** True when some job is pinned to a stop position (piece evaluation then re-times whole sequences). */
+  hasPositionPins: boolean;
   /** Job-to-job arc: travel seconds plus set-up when the barns differ. */
   arcSec: Float64Array;
   /** Job-to-job travel seconds (no set-up). */
@@ -177,7 +179,8 @@ export function buildModel(problem: Problem): Model {
     if (f.normalWorkSec + f.maxOvertimeSec < span) needsExact = true;
     if (!fleet && f.costPerOvertimeSec > 0 && f.normalWorkSec < span) needsExact = true;
   });
-  if (pinPosition.some((p) => p > 0)) needsExact = true;
+  const hasPositionPins = pinPosition.some((p) => p > 0);
+  if (hasPositionPins) needsExact = true;
 
   const K = Math.min(nJobs - 1, 40);
   const neighbours: Int32Array[] = [];
@@ -198,7 +201,7 @@ export function buildModel(problem: Problem): Model {
   }
   const typicalArcCost = cnt && sum > 0 ? sum / cnt : 1;
   return {
-    problem, nJobs, nFarriers, jobLoc, jobBarn, serviceSec, demand, windows, leaveOutCost, mandatory, eligible, pinPosition,
+    problem, nJobs, nFarriers, jobLoc, jobBarn, serviceSec, demand, windows, leaveOutCost, mandatory, eligible, pinPosition, hasPositionPins,
     arcSec, travelSec, arcM, fromHomeArc, fromHomeTravel, fromHomeM, toHomeTravel, toHomeM,
     shiftStart, endLimit, capacity, cDrive, cMetre, cOvertime, fixedCost, needsExact, neighbours, typicalArcCost, fleetObjective: fleet,
   };

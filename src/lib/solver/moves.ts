@@ -1,6 +1,5 @@
-import { evalRoute } from './route-eval';
 import type { Rng } from './random';
-import type { State } from './state';
+import { materialize, type State } from './state';
 
 /**
  * Local-search moves for time-window routing. Each move knows the routes it rewrites; `evaluate()` is
@@ -9,34 +8,54 @@ import type { State } from './state';
  */
 export type MoveKind = 'relocate' | 'swap' | 'two-opt-star' | 'or-opt' | 'cross-exchange' | 'two-opt' | 'insert-unplanned' | 'exchange-unplanned';
 
-/** A local-search move: the routes it rewrites and the jobs it brings into or out of the plan. */
+/**
+ * A local-search move: the routes it rewrites and the jobs it brings into or out of the plan. Each
+ * rewritten route is a piece list over the current routes (see `Pieces` in state.ts), so that a move
+ * is evaluated without building its sequences; `apply()` builds them.
+ */
 export class Move {
   /**
-   * `changes`: new sequences of the routes the move rewrites. `enter` / `leave`: jobs that join the
-   * plan from the unplanned list or leave it (their leave-out costs are part of the change).
+   * `parts`: the new sequences of the routes the move rewrites, as piece lists. `enter` / `leave`:
+   * jobs that join the plan from the unplanned list or leave it (their leave-out costs are part of the change).
    */
-  constructor(readonly kind: MoveKind, readonly changes: { f: number; seq: number[] }[], readonly enter: number[] = [], readonly leave: number[] = []) {}
+  constructor(readonly kind: MoveKind, readonly parts: { f: number; pieces: number[] }[], readonly enter: number[] = [], readonly leave: number[] = []) {}
+
+  /** The new sequences on `s` (before the move is applied). */
+  changes(s: State): { f: number; seq: number[] }[] {
+    return this.parts.map((c) => ({ f: c.f, seq: materialize(s.routes, c.pieces) }));
+  }
 
   /** Exact cost change of the move on `s`, without changing `s`. */
   evaluate(s: State): number {
     let d = 0;
     for (const j of this.enter) d -= s.m.leaveOutCost[j];
     for (const j of this.leave) d += s.m.leaveOutCost[j];
-    for (const c of this.changes) {
-      const e = evalRoute(s.m, c.f, c.seq);
-      if (!e.feasible) return Infinity;
-      d += e.cost - s.evals[c.f].cost;
+    for (const c of this.parts) {
+      const cost = s.costOf(c.f, c.pieces);
+      if (cost === Infinity) return Infinity;
+      d += cost - s.evals[c.f].cost;
     }
     return d;
   }
 
   apply(s: State): void {
-    for (const c of this.changes) s.routes[c.f] = c.seq.slice();
+    const changes = this.changes(s);
+    for (const c of changes) s.routes[c.f] = c.seq;
     for (const j of this.leave) { s.routeOf[j] = -1; s.unassigned.add(j); }
     for (const j of this.enter) s.unassigned.delete(j);
-    for (const c of this.changes) s.refresh(c.f);
+    for (const c of changes) s.refresh(c.f);
     s.recomputeCost();
   }
+}
+
+/** Piece: positions a..b−1 of route f (reversed with `rev`). */
+const R = (f: number, a: number, b: number, rev = 0) => [f, a, b, rev];
+/** Piece: the single job j. */
+const J = (j: number) => [-1, j, 0, 0];
+function cat(...ps: number[][]): number[] {
+  const out: number[] = [];
+  for (const p of ps) out.push(p[0], p[1], p[2], p[3]);
+  return out;
 }
 
 /**
@@ -46,11 +65,11 @@ export class Move {
 export function unplannedMoves(s: State, u: number, v: number): Move[] {
   const B = s.routeOf[v];
   if (B < 0 || s.routeOf[u] >= 0 || !s.m.eligible[B * s.m.nJobs + u]) return [];
-  const rb = s.routes[B], b = rb.indexOf(v);
+  const rb = s.routes[B], b = rb.indexOf(v), nB = rb.length;
   return [
-    new Move('insert-unplanned', [{ f: B, seq: [...rb.slice(0, b + 1), u, ...rb.slice(b + 1)] }], [u]),
-    new Move('insert-unplanned', [{ f: B, seq: [...rb.slice(0, b), u, ...rb.slice(b)] }], [u]),
-    new Move('exchange-unplanned', [{ f: B, seq: [...rb.slice(0, b), u, ...rb.slice(b + 1)] }], [u], [v]),
+    new Move('insert-unplanned', [{ f: B, pieces: cat(R(B, 0, b + 1), J(u), R(B, b + 1, nB)) }], [u]),
+    new Move('insert-unplanned', [{ f: B, pieces: cat(R(B, 0, b), J(u), R(B, b, nB)) }], [u]),
+    new Move('exchange-unplanned', [{ f: B, pieces: cat(R(B, 0, b), J(u), R(B, b + 1, nB)) }], [u], [v]),
   ];
 }
 
@@ -64,68 +83,50 @@ export function movesAround(s: State, u: number, v: number): Move[] {
   if (A < 0 || B < 0) return [];
   const ra = s.routes[A], rb = s.routes[B];
   const a = ra.indexOf(u), b = rb.indexOf(v);
+  const nA = ra.length, nB = rb.length;
   const out: Move[] = [];
   if (A !== B) {
+    const withoutU = cat(R(A, 0, a), R(A, a + 1, nA));
     // relocate u after v and before v
-    out.push(new Move('relocate', [
-      { f: A, seq: [...ra.slice(0, a), ...ra.slice(a + 1)] },
-      { f: B, seq: [...rb.slice(0, b + 1), u, ...rb.slice(b + 1)] },
-    ]));
-    out.push(new Move('relocate', [
-      { f: A, seq: [...ra.slice(0, a), ...ra.slice(a + 1)] },
-      { f: B, seq: [...rb.slice(0, b), u, ...rb.slice(b)] },
-    ]));
+    out.push(new Move('relocate', [{ f: A, pieces: withoutU }, { f: B, pieces: cat(R(B, 0, b + 1), J(u), R(B, b + 1, nB)) }]));
+    out.push(new Move('relocate', [{ f: A, pieces: withoutU }, { f: B, pieces: cat(R(B, 0, b), J(u), R(B, b, nB)) }]));
     // swap u and v
-    out.push(new Move('swap', [
-      { f: A, seq: [...ra.slice(0, a), v, ...ra.slice(a + 1)] },
-      { f: B, seq: [...rb.slice(0, b), u, ...rb.slice(b + 1)] },
-    ]));
+    out.push(new Move('swap', [{ f: A, pieces: cat(R(A, 0, a), J(v), R(A, a + 1, nA)) }, { f: B, pieces: cat(R(B, 0, b), J(u), R(B, b + 1, nB)) }]));
     // 2-opt*: tails exchanged after u and after v; and so that u is followed by v
-    out.push(new Move('two-opt-star', [
-      { f: A, seq: [...ra.slice(0, a + 1), ...rb.slice(b + 1)] },
-      { f: B, seq: [...rb.slice(0, b + 1), ...ra.slice(a + 1)] },
-    ]));
-    out.push(new Move('two-opt-star', [
-      { f: A, seq: [...ra.slice(0, a + 1), ...rb.slice(b)] },
-      { f: B, seq: [...rb.slice(0, b), ...ra.slice(a + 1)] },
-    ]));
+    out.push(new Move('two-opt-star', [{ f: A, pieces: cat(R(A, 0, a + 1), R(B, b + 1, nB)) }, { f: B, pieces: cat(R(B, 0, b + 1), R(A, a + 1, nA)) }]));
+    out.push(new Move('two-opt-star', [{ f: A, pieces: cat(R(A, 0, a + 1), R(B, b, nB)) }, { f: B, pieces: cat(R(B, 0, b), R(A, a + 1, nA)) }]));
     // or-opt: segment of 2 or 3 starting at u inserted after v
     for (let len = 2; len <= 3; len++) {
-      if (a + len > ra.length) break;
-      const seg = ra.slice(a, a + len);
-      out.push(new Move('or-opt', [
-        { f: A, seq: [...ra.slice(0, a), ...ra.slice(a + len)] },
-        { f: B, seq: [...rb.slice(0, b + 1), ...seg, ...rb.slice(b + 1)] },
-      ]));
+      if (a + len > nA) break;
+      out.push(new Move('or-opt', [{ f: A, pieces: cat(R(A, 0, a), R(A, a + len, nA)) }, { f: B, pieces: cat(R(B, 0, b + 1), R(A, a, a + len), R(B, b + 1, nB)) }]));
     }
     // cross-exchange: segments starting at u and at v, lengths 1..3 (not both 1: that is swap)
-    for (let la = 1; la <= 3 && a + la <= ra.length; la++) {
-      for (let lb = 1; lb <= 3 && b + lb <= rb.length; lb++) {
+    for (let la = 1; la <= 3 && a + la <= nA; la++) {
+      for (let lb = 1; lb <= 3 && b + lb <= nB; lb++) {
         if (la === 1 && lb === 1) continue;
         out.push(new Move('cross-exchange', [
-          { f: A, seq: [...ra.slice(0, a), ...rb.slice(b, b + lb), ...ra.slice(a + la)] },
-          { f: B, seq: [...rb.slice(0, b), ...ra.slice(a, a + la), ...rb.slice(b + lb)] },
+          { f: A, pieces: cat(R(A, 0, a), R(B, b, b + lb), R(A, a + la, nA)) },
+          { f: B, pieces: cat(R(B, 0, b), R(A, a, a + la), R(B, b + lb, nB)) },
         ]));
       }
     }
   } else if (a !== b) {
-    // intra-route relocate of u to just after v, or-opt of 2..3, swap, and 2-opt (reverse between)
-    const without = [...ra.slice(0, a), ...ra.slice(a + 1)];
-    const vb = without.indexOf(v);
-    out.push(new Move('relocate', [{ f: A, seq: [...without.slice(0, vb + 1), u, ...without.slice(vb + 1)] }]));
-    out.push(new Move('relocate', [{ f: A, seq: [...without.slice(0, vb), u, ...without.slice(vb)] }]));
-    for (let len = 2; len <= 3; len++) {
-      if (a + len > ra.length || (b >= a && b < a + len)) continue;
-      const seg = ra.slice(a, a + len);
-      const rest = [...ra.slice(0, a), ...ra.slice(a + len)];
-      const vi = rest.indexOf(v);
-      out.push(new Move('or-opt', [{ f: A, seq: [...rest.slice(0, vi + 1), ...seg, ...rest.slice(vi + 1)] }]));
+    // intra-route relocate of u to just after / before v, or-opt of 2..3, swap, and 2-opt (reverse between)
+    if (a < b) {
+      out.push(new Move('relocate', [{ f: A, pieces: cat(R(A, 0, a), R(A, a + 1, b + 1), J(u), R(A, b + 1, nA)) }]));
+      out.push(new Move('relocate', [{ f: A, pieces: cat(R(A, 0, a), R(A, a + 1, b), J(u), R(A, b, nA)) }]));
+    } else {
+      out.push(new Move('relocate', [{ f: A, pieces: cat(R(A, 0, b + 1), J(u), R(A, b + 1, a), R(A, a + 1, nA)) }]));
+      out.push(new Move('relocate', [{ f: A, pieces: cat(R(A, 0, b), J(u), R(A, b, a), R(A, a + 1, nA)) }]));
     }
-    const sw = ra.slice();
-    sw[a] = v; sw[b] = u;
-    out.push(new Move('swap', [{ f: A, seq: sw }]));
+    for (let len = 2; len <= 3; len++) {
+      if (a + len > nA || (b >= a && b < a + len)) continue;
+      if (b < a) out.push(new Move('or-opt', [{ f: A, pieces: cat(R(A, 0, b + 1), R(A, a, a + len), R(A, b + 1, a), R(A, a + len, nA)) }]));
+      else out.push(new Move('or-opt', [{ f: A, pieces: cat(R(A, 0, a), R(A, a + len, b + 1), R(A, a, a + len), R(A, b + 1, nA)) }]));
+    }
     const i = Math.min(a, b), k = Math.max(a, b);
-    out.push(new Move('two-opt', [{ f: A, seq: [...ra.slice(0, i), ...ra.slice(i, k + 1).reverse(), ...ra.slice(k + 1)] }]));
+    out.push(new Move('swap', [{ f: A, pieces: cat(R(A, 0, i), J(ra[k]), R(A, i + 1, k), J(ra[i]), R(A, k + 1, nA)) }]));
+    out.push(new Move('two-opt', [{ f: A, pieces: cat(R(A, 0, i), R(A, i, k + 1, 1), R(A, k + 1, nA)) }]));
   }
   return out;
 }
@@ -138,7 +139,7 @@ export function movesToEmpty(s: State, u: number): Move[] {
   const out: Move[] = [];
   for (let f = 0; f < s.routes.length; f++) {
     if (f === A || s.routes[f].length || !s.m.eligible[f * s.m.nJobs + u]) continue;
-    out.push(new Move('relocate', [{ f: A, seq: [...ra.slice(0, a), ...ra.slice(a + 1)] }, { f, seq: [u] }]));
+    out.push(new Move('relocate', [{ f: A, pieces: cat(R(A, 0, a), R(A, a + 1, ra.length)) }, { f, pieces: J(u) }]));
     if (s.m.fleetObjective) break;
   }
   return out;

@@ -3,7 +3,9 @@ import { impossibleReason, type UnplannedReason } from './diagnose';
 import { localSearch } from './moves';
 import { createRng, type Rng } from './random';
 import { evalRoute } from './route-eval';
-import { annealTemperature, DEFAULT_SISR, greedyConstruct, recreate, recreateCandidates, regretConstruct, ruin, ruinAround } from './sisr';
+import { annealTemperature, DEFAULT_SISR, greedyConstruct, recreate, recreateCandidates, regretConstruct, regretRecreate, ruin, ruinAround } from './sisr';
+/** Share of recreate steps that use regret insertion instead of greedy insertion. */
+const REGRET_SHARE = 0.5;
 import { State } from './state';
 import type { Problem } from './problem';
 
@@ -164,7 +166,9 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
       const T = annealTemperature(m, (iterations - cycleStart) / cycle);
       const cand = cur.clone();
       const { removed, seed } = ruinAround(cand, rng, DEFAULT_SISR);
-      recreate(cand, rng, DEFAULT_SISR, undefined, recreateCandidates(cand, rng, removed, seed, hopeless));
+      const cands = recreateCandidates(cand, rng, removed, seed, hopeless);
+      if (rng.next() < REGRET_SHARE) regretRecreate(cand, rng, DEFAULT_SISR, cands);
+      else recreate(cand, rng, DEFAULT_SISR, undefined, cands);
       iterations++;
       sinceBest++;
       if (cand.cost < cur.cost - T * Math.log(1 - rng.next() + 1e-300)) {

@@ -13,6 +13,47 @@ function latestIn(w: Float64Array, t: number): number {
 }
 
 /**
+ * Per-route timing prefix kept by `State.refresh`: for each position k, the work start of job k and,
+ * after job k, whether the break is behind, the cumulative drive, distance and load. A candidate
+ * sequence that keeps a route's first jobs starts from these values; one that ends with the route's
+ * own tail stops re-timing as soon as a tail job starts exactly when it used to (with the same break
+ * status): everything after it is then unchanged.
+ */
+export interface RouteCache {
+  start: Float64Array;
+  breakDone: Uint8Array;
+  drive: Float64Array;
+  dist: Float64Array;
+  load: Float64Array;
+  breakStart: number;
+  breakAtHome: boolean;
+  end: number;
+}
+
+/**
+ * A route piece list for `State.costOf`: groups of four numbers `[source, a, b, reversed]`, where a
+ * source ≥ 0 means positions a..b−1 of that farrier's current route (reversed when the fourth number
+ * is 1) and source −1 means the single job `a`.
+ */
+export type Pieces = ArrayLike<number>;
+
+/** The job sequence a piece list describes on the current routes. */
+export function materialize(routes: number[][], P: Pieces): number[] {
+  const out: number[] = [];
+  for (let i = 0; i < P.length; i += 4) {
+    const src = P[i], a = P[i + 1], b = P[i + 2];
+    if (src < 0) { out.push(a); continue; }
+    const r = routes[src];
+    if (P[i + 3]) for (let k = b - 1; k >= a; k--) out.push(r[k]);
+    else for (let k = a; k < b; k++) out.push(r[k]);
+  }
+  return out;
+}
+
+/** Piece list of one insertion, reused (the engine is single-threaded and `costOf` does not recurse). */
+const SCRATCH = new Float64Array(12);
+
+/**
  * A plan under search: one job sequence per farrier plus the left-out jobs. Each route keeps
  * forward ready times and backward latest starts (Savelsbergh's time slack), so that inserting a
  * job anywhere is checked in constant time; the exact evaluator then confirms the move when breaks,
@@ -25,6 +66,8 @@ export class State {
   ready: Float64Array[];
   latest: Float64Array[];
   routeOf: Int32Array;
+  /** Timing prefix of each feasible route (null for an infeasible one). */
+  caches: (RouteCache | null)[];
   unassigned: Set<number>;
   cost = 0;
   /** Routes refreshed since this state was cloned (the part a search step changed). */
@@ -36,6 +79,7 @@ export class State {
     this.ready = this.routes.map(() => new Float64Array(0));
     this.latest = this.routes.map((_, f) => Float64Array.of(m.endLimit[f]));
     this.routeOf = new Int32Array(m.nJobs).fill(-1);
+    this.caches = this.routes.map((r, f) => buildCache(m, f, r));
     this.unassigned = new Set(Array.from({ length: m.nJobs }, (_, j) => j));
     this.recomputeCost();
   }
@@ -48,6 +92,7 @@ export class State {
     s.ready = this.ready.slice();
     s.latest = this.latest.slice();
     s.routeOf = this.routeOf.slice();
+    s.caches = this.caches.slice();
     s.unassigned = new Set(this.unassigned);
     s.cost = this.cost;
     s.touched = new Set();
@@ -91,6 +136,7 @@ export class State {
     this.ready[f] = ready;
     this.latest[f] = latest;
     this.evals[f] = evalRoute(m, f, r);
+    this.caches[f] = this.evals[f].feasible ? buildCache(m, f, r) : null;
     this.touched.add(f);
   }
 
@@ -133,6 +179,102 @@ export class State {
     this.routes[f].splice(p, 0, j);
     this.unassigned.delete(j);
     this.refresh(f);
+  }
+
+  /**
+   * Exact cost of farrier f doing the sequence the pieces describe (Infinity when a rule breaks),
+   * without building it: the same rules as `evalRoute`, re-using the route's timing prefix when the
+   * pieces start with its first jobs and stopping early once its own tail is back on its old times.
+   */
+  costOf(f: number, P: Pieces): number {
+    const m = this.m, N = m.nJobs;
+    if (m.hasPositionPins) {
+      const e = evalRoute(m, f, materialize(this.routes, P));
+      return e.feasible ? e.cost : Infinity;
+    }
+    const np = P.length >> 2;
+    let total = 0;
+    for (let i = 0; i < np; i++) total += P[4 * i] < 0 ? 1 : P[4 * i + 2] - P[4 * i + 1];
+    if (total === 0) return 0;
+    const far = m.problem.farriers[f];
+    const hasBreak = far.breakSec > 0 && far.breakWindow !== null;
+    const bwS = hasBreak ? far.breakWindow!.startSec : 0, bwE = hasBreak ? far.breakWindow!.endSec : 0, bSec = far.breakSec;
+    const own = this.routes[f], n0 = own.length, c = this.caches[f];
+    const cap = m.capacity[f], elig = m.eligible, base = f * N;
+    const fromArc = m.fromHomeArc[f], fromT = m.fromHomeTravel[f], fromM = m.fromHomeM[f];
+    let ready: number, breakDone: boolean, atHome = false, breakStart = 0;
+    let drive = 0, dist = 0, load = 0, firstStart = 0, firstJob = -1, prev = -1;
+    let pi = 0;
+    if (c && P[0] === f && P[3] === 0 && P[1] === 0 && P[2] > 0) {
+      const L = P[2] - 1;
+      prev = own[L];
+      ready = c.start[L] + m.serviceSec[prev];
+      breakDone = !hasBreak || c.breakDone[L] === 1;
+      if (hasBreak && c.breakDone[L]) { breakStart = c.breakStart; atHome = c.breakAtHome; }
+      drive = c.drive[L]; dist = c.dist[L]; load = c.load[L];
+      firstStart = c.start[0]; firstJob = own[0];
+      pi = 1;
+    } else {
+      ready = m.shiftStart[f];
+      breakDone = !hasBreak;
+    }
+    const last = np - 1;
+    const mergeOk = c !== null && last >= pi && P[4 * last] === f && P[4 * last + 3] === 0 && P[4 * last + 2] === n0;
+    let end = -1;
+    outer: for (; pi < np; pi++) {
+      const src = P[4 * pi], a = P[4 * pi + 1], b = P[4 * pi + 2], rev = P[4 * pi + 3];
+      const len = src < 0 ? 1 : b - a;
+      const merging = mergeOk && pi === last;
+      const r = src < 0 ? own : this.routes[src];
+      for (let t = 0; t < len; t++) {
+        const pos = rev ? b - 1 - t : a + t;
+        const j = src < 0 ? a : r[pos];
+        if (!elig[base + j]) return Infinity;
+        load += m.demand[j];
+        if (load > cap) return Infinity;
+        const arc = prev < 0 ? fromArc[j] : m.arcSec[prev * N + j];
+        const w = m.windows[j];
+        let st = earliestIn(w, ready + arc);
+        if (!breakDone && (st >= bwS || st === Infinity)) {
+          const bb = ready > bwS ? ready : bwS;
+          if (bb > bwE) return Infinity;
+          breakStart = bb; breakDone = true; atHome = prev < 0;
+          st = earliestIn(w, bb + bSec + arc);
+        }
+        if (st === Infinity) return Infinity;
+        if (prev < 0) { firstStart = st; firstJob = j; drive += fromT[j]; dist += fromM[j]; }
+        else { drive += m.travelSec[prev * N + j]; dist += m.arcM[prev * N + j]; }
+        ready = st + m.serviceSec[j];
+        prev = j;
+        if (merging && st === c!.start[pos] && (breakDone ? 1 : 0) === c!.breakDone[pos]) {
+          // the rest of the route is timed exactly as before
+          const lastPos = n0 - 1;
+          drive += c!.drive[lastPos] - c!.drive[pos] + m.toHomeTravel[f][own[lastPos]];
+          dist += c!.dist[lastPos] - c!.dist[pos] + m.toHomeM[f][own[lastPos]];
+          load += c!.load[lastPos] - c!.load[pos];
+          if (load > cap) return Infinity;
+          end = c!.end;
+          break outer;
+        }
+      }
+    }
+    if (end < 0) {
+      if (!breakDone) {
+        const bb = ready > bwS ? ready : bwS;
+        if (bb > bwE) return Infinity;
+        breakStart = bb; breakDone = true;
+        ready = bb + bSec;
+      }
+      end = ready + m.toHomeTravel[f][prev];
+      drive += m.toHomeTravel[f][prev];
+      dist += m.toHomeM[f][prev];
+    }
+    if (end > m.endLimit[f]) return Infinity;
+    const start = atHome ? breakStart + bSec : firstStart - fromArc[firstJob];
+    const workSec = end - start - (hasBreak && !atHome ? bSec : 0);
+    const overtime = workSec > far.normalWorkSec ? workSec - far.normalWorkSec : 0;
+    if (overtime > far.maxOvertimeSec) return Infinity;
+    return m.fixedCost[f] + m.cDrive[f] * drive + m.cMetre[f] * dist + m.cOvertime[f] * overtime;
   }
 
   /**
@@ -198,11 +340,56 @@ export class State {
     }
     if (m.needsExact) {
       if (m.cDrive[f] * dT + m.cMetre[f] * dM + (n === 0 ? m.fixedCost[f] : 0) >= bound) return Infinity;
-      const seq = r.slice();
-      seq.splice(p, 0, j);
-      const e = evalRoute(m, f, seq);
-      return e.feasible ? e.cost - ev.cost : Infinity;
+      const P = SCRATCH;
+      P[0] = f; P[1] = 0; P[2] = p; P[3] = 0;
+      P[4] = -1; P[5] = j; P[6] = 0; P[7] = 0;
+      P[8] = f; P[9] = p; P[10] = n; P[11] = 0;
+      const c = this.costOf(f, P);
+      return c === Infinity ? Infinity : c - ev.cost;
     }
     return m.cDrive[f] * dT + m.cMetre[f] * dM + (n === 0 ? m.fixedCost[f] : 0);
   }
+}
+
+/**
+ * Timing prefix of a route for `State.costOf`, following the rules of `evalRoute` step by step
+ * (null when the route breaks a rule: candidates are then re-timed from scratch).
+ */
+export function buildCache(m: Model, f: number, r: number[]): RouteCache | null {
+  const n = r.length, N = m.nJobs;
+  const far = m.problem.farriers[f];
+  const hasBreak = far.breakSec > 0 && far.breakWindow !== null;
+  const bwS = hasBreak ? far.breakWindow!.startSec : 0, bwE = hasBreak ? far.breakWindow!.endSec : 0;
+  const c: RouteCache = {
+    start: new Float64Array(n), breakDone: new Uint8Array(n), drive: new Float64Array(n), dist: new Float64Array(n), load: new Float64Array(n),
+    breakStart: 0, breakAtHome: false, end: m.shiftStart[f],
+  };
+  if (n === 0) return c;
+  let ready = m.shiftStart[f], breakDone = !hasBreak, drive = 0, dist = 0, load = 0, prev = -1;
+  for (let k = 0; k < n; k++) {
+    const j = r[k];
+    const arc = prev < 0 ? m.fromHomeArc[f][j] : m.arcSec[prev * N + j];
+    let st = earliestIn(m.windows[j], ready + arc);
+    if (!breakDone && (st >= bwS || st === Infinity)) {
+      const bb = ready > bwS ? ready : bwS;
+      if (bb > bwE) return null;
+      c.breakStart = bb; c.breakAtHome = k === 0; breakDone = true;
+      st = earliestIn(m.windows[j], bb + far.breakSec + arc);
+    }
+    if (st === Infinity) return null;
+    if (prev < 0) { drive += m.fromHomeTravel[f][j]; dist += m.fromHomeM[f][j]; }
+    else { drive += m.travelSec[prev * N + j]; dist += m.arcM[prev * N + j]; }
+    load += m.demand[j];
+    c.start[k] = st; c.breakDone[k] = breakDone ? 1 : 0; c.drive[k] = drive; c.dist[k] = dist; c.load[k] = load;
+    ready = st + m.serviceSec[j];
+    prev = j;
+  }
+  if (!breakDone) {
+    const bb = ready > bwS ? ready : bwS;
+    if (bb > bwE) return null;
+    c.breakStart = bb;
+    ready = bb + far.breakSec;
+  }
+  c.end = ready + m.toHomeTravel[f][prev];
+  return c;
 }

@@ -1,0 +1,69 @@
+import { describe, expect, it } from 'vitest';
+import { buildModel } from '../../../src/lib/solver/model';
+import { createRng } from '../../../src/lib/solver/random';
+import { evalRoute } from '../../../src/lib/solver/route-eval';
+import { regretConstruct, regretRecreate, DEFAULT_SISR, ruinAround } from '../../../src/lib/solver/sisr';
+import { materialize, State } from '../../../src/lib/solver/state';
+import { checkSolution } from '../../../src/lib/solver/checker';
+import { randomProblem } from './helpers';
+
+describe('piece evaluation (State.costOf)', () => {
+  it('gives the same cost as re-timing the built sequence from scratch, and Infinity exactly when that breaks a rule', () => {
+    let compared = 0, infeasible = 0, merged = 0;
+    for (const seed of [11, 12, 13, 14, 15, 16]) {
+      const p = randomProblem(seed, { jobs: 18, farriers: 3, breaks: seed % 2 === 0, pins: seed === 15, tight: seed >= 14 });
+      const m = buildModel(p);
+      const s = new State(m);
+      const rng = createRng(seed);
+      regretConstruct(s, rng);
+      for (let t = 0; t < 400; t++) {
+        const f = rng.int(m.nFarriers);
+        const own = s.routes[f];
+        // pieces: usually the route's own head, then random pieces from any route or single jobs, usually its own tail
+        const P: number[] = [];
+        const cut = rng.int(own.length + 1), tail = cut + rng.int(own.length - cut + 1);
+        if (rng.next() < 0.8) P.push(f, 0, cut, 0);
+        for (let k = rng.int(3); k > 0; k--) {
+          if (rng.next() < 0.5) P.push(-1, rng.int(m.nJobs), 0, 0);
+          else {
+            const g = rng.int(m.nFarriers), r = s.routes[g];
+            const a = rng.int(r.length + 1), b = a + rng.int(r.length - a + 1);
+            P.push(g, a, b, rng.next() < 0.3 ? 1 : 0);
+          }
+        }
+        if (rng.next() < 0.8) P.push(f, tail, own.length, 0);
+        const seq = materialize(s.routes, P);
+        const e = evalRoute(m, f, seq);
+        const c = s.costOf(f, P);
+        if (!e.feasible) { expect(c).toBe(Infinity); infeasible++; }
+        else { expect(c).toBeCloseTo(e.cost, 6); compared++; if (P[0] === f && P[P.length - 4] === f) merged++; }
+      }
+    }
+    // both outcomes, and pieces keeping a route's head and tail, were exercised
+    expect(compared).toBeGreaterThan(200);
+    expect(infeasible).toBeGreaterThan(50);
+    expect(merged).toBeGreaterThan(50);
+  });
+});
+
+describe('regret recreate', () => {
+  it('puts ruined jobs back into a plan the independent checker accepts, with its cost kept in step with its routes', () => {
+    for (const seed of [31, 32, 33]) {
+      const p = randomProblem(seed, { jobs: 20, farriers: 3, breaks: true, tight: seed === 33 });
+      const s = new State(buildModel(p));
+      const rng = createRng(seed);
+      regretConstruct(s, rng);
+      for (let t = 0; t < 30; t++) {
+        const c = s.clone();
+        const { removed } = ruinAround(c, rng, DEFAULT_SISR);
+        regretRecreate(c, rng, { ...DEFAULT_SISR, blinkRate: 0 }, removed);
+        const check = checkSolution(p, { routes: c.routes.map((seq, f) => ({ farrierId: p.farriers[f].id, jobIds: seq.map((j) => p.jobs[j].id) })) });
+        expect(check.violations).toEqual([]);
+        // the incremental cost equals a recount over the routes and the left-out list
+        const incremental = c.cost;
+        expect(incremental).toBeCloseTo(c.recomputeCost(), 6);
+        expect(removed.every((j) => c.routeOf[j] >= 0 || c.unassigned.has(j))).toBe(true);
+      }
+    }
+  });
+});
