@@ -3,10 +3,10 @@
  * with dnd-kit, by mouse or keyboard (focus a card, Space to lift, arrow keys to move, Space to drop).
  * A drop becomes moves for the plans API; the server re-times and answers, nothing moves on its own.
  */
-import { memo, useMemo, useState } from 'react';
+import { memo, useCallback, useMemo, useRef, useState } from 'react';
 import {
   DndContext, DragOverlay, KeyboardSensor, PointerSensor, closestCenter, useDroppable, useSensor, useSensors,
-  type DragEndEvent, type DragStartEvent,
+  type Collision, type CollisionDetection, type DragEndEvent, type DragStartEvent,
 } from '@dnd-kit/core';
 import { SortableContext, sortableKeyboardCoordinates, useSortable, verticalListSortingStrategy } from '@dnd-kit/sortable';
 import { CSS } from '@dnd-kit/utilities';
@@ -38,7 +38,47 @@ function stopMoves(stop: PlanStopView, toFarrierId: number | null, position?: nu
   ];
 }
 
+/**
+ * Where a dragged card is over, found in two steps: first the lane under the card's centre (the lane
+ * whose left–right span holds it, else the nearest lane sideways), then the closest centre among that
+ * lane and its own cards. dnd-kit's closestCenter over every card would read all 300 card rectangles
+ * on each pointer move (each read re-checks the scroll offsets, forcing layout); this reads the few
+ * lanes and one lane's cards. While the target stays the same the same array is answered: dnd-kit
+ * hands the collisions to every card through its context, and a fresh array on every pointer move
+ * would re-render all cards at pointer rate, while only a change of target needs to.
+ */
+function useLaneCollisions(): CollisionDetection {
+  const last = useRef<Collision[]>([]);
+  return useCallback((args) => {
+    const { collisionRect, droppableRects, droppableContainers } = args;
+    const x = collisionRect.left + collisionRect.width / 2;
+    let lane: string | null = null;
+    let best = Infinity;
+    for (const c of droppableContainers) {
+      const id = String(c.id);
+      if (!id.startsWith('lane:')) continue;
+      const r = droppableRects.get(c.id);
+      if (!r) continue;
+      const left = r.left, right = left + r.width;
+      const gap = x < left ? left - x : x > right ? x - right : 0;
+      if (gap < best) {
+        best = gap;
+        lane = id;
+      }
+    }
+    const candidates = lane === null
+      ? droppableContainers
+      : droppableContainers.filter((c) => String(c.id) === lane || (c.data.current as { sortable?: { containerId?: unknown } } | undefined)?.sortable?.containerId === lane);
+    const next = closestCenter({ ...args, droppableContainers: candidates });
+    const prev = last.current;
+    if (next.length === prev.length && next[0]?.id === prev[0]?.id) return prev;
+    last.current = next;
+    return next;
+  }, []);
+}
+
 export default function Board({ routes, unplanned, units, selectedBarnId, onSelectBarn, onMoves, busy }: BoardProps) {
+  const collisionDetection = useLaneCollisions();
   const sensors = useSensors(
     useSensor(PointerSensor, { activationConstraint: { distance: 6 } }),
     useSensor(KeyboardSensor, { coordinateGetter: sortableKeyboardCoordinates }),
@@ -90,7 +130,7 @@ export default function Board({ routes, unplanned, units, selectedBarnId, onSele
   };
 
   return (
-    <DndContext sensors={sensors} collisionDetection={closestCenter} onDragStart={onDragStart} onDragEnd={onDragEnd} onDragCancel={() => setActive(null)}>
+    <DndContext sensors={sensors} collisionDetection={collisionDetection} onDragStart={onDragStart} onDragEnd={onDragEnd} onDragCancel={() => setActive(null)}>
       <div className={`flex gap-3 overflow-x-auto pb-3 ${busy ? 'opacity-70' : ''}`} data-testid="board">
         {routes.map((r) => (
           <Lane key={r.farrierId} route={r} units={units} selectedBarnId={selectedBarnId} onSelectBarn={onSelectBarn} onMoves={onMoves} />
@@ -114,6 +154,7 @@ const Lane = memo(function Lane({ route, units, selectedBarnId, onSelectBarn, on
   const { setNodeRef, isOver } = useDroppable({ id: `lane:${route.farrierId}` });
   const empty = route.stops.length === 0;
   const laneWarnings = route.warnings;
+  const items = useMemo(() => route.stops.map((s) => `stop:${s.id}`), [route.stops]);
   return (
     <section ref={setNodeRef} className={`flex w-72 shrink-0 flex-col rounded-xl border bg-white shadow-sm ${isOver ? 'border-ember-400 ring-2 ring-ember-100' : 'border-slateblue-100'}`} data-lane={route.farrierId} aria-label={`Route of ${route.farrierName}`}>
       <header className="rounded-t-xl border-b border-slateblue-100 px-3 py-2" style={{ borderTop: `4px solid ${route.colour}` }}>
@@ -144,7 +185,7 @@ const Lane = memo(function Lane({ route, units, selectedBarnId, onSelectBarn, on
           <p key={c} className="mt-1 text-[11px] text-slateblue-500">⚠ {c}</p>
         ))}
       </header>
-      <SortableContext id={`lane:${route.farrierId}`} items={route.stops.map((s) => `stop:${s.id}`)} strategy={verticalListSortingStrategy}>
+      <SortableContext id={`lane:${route.farrierId}`} items={items} strategy={verticalListSortingStrategy}>
         <ol className="flex min-h-24 flex-1 flex-col gap-2 p-2">
           {route.stops.map((s) => (
             <StopCard key={s.id} stop={s} farrierId={route.farrierId} units={units} selected={selectedBarnId === s.barnId} onSelectBarn={onSelectBarn} onMoves={onMoves} />
@@ -155,11 +196,16 @@ const Lane = memo(function Lane({ route, units, selectedBarnId, onSelectBarn, on
   );
 });
 
+/**
+ * A stop's card: a thin sortable shell (it re-renders whenever dnd-kit's drag state changes, which is
+ * unavoidable for a sortable item) around a memoised body that re-renders only when the stop changes.
+ * `content-visibility: auto` lets the browser skip style, layout and paint of cards scrolled out of
+ * view (a long lane holds dozens), remembering each card's last size so the lane keeps its height and
+ * dnd-kit's measurements stay true; the cards stay in the DOM, so every one remains a drop target.
+ */
 const StopCard = memo(function StopCard({ stop, farrierId, units, selected, onSelectBarn, onMoves }: { stop: PlanStopView; farrierId: number; units: 'miles' | 'km'; selected: boolean; onSelectBarn: (id: number | null) => void; onMoves: (m: Move[]) => void }) {
   const { attributes, listeners, setNodeRef, transform, transition, isDragging } = useSortable({ id: `stop:${stop.id}` });
-  const pinned = stop.jobs.length > 0 && stop.jobs.every((j) => j.pinned);
   const style = { transform: CSS.Translate.toString(transform), transition };
-  const cautions = [...new Set(stop.jobs.flatMap((j) => j.cautions))];
   return (
     <li
       ref={setNodeRef}
@@ -167,11 +213,21 @@ const StopCard = memo(function StopCard({ stop, farrierId, units, selected, onSe
       {...attributes}
       {...listeners}
       onClick={() => onSelectBarn(selected ? null : stop.barnId)}
-      className={`cursor-grab rounded-lg border bg-white p-2 text-sm outline-none focus-visible:ring-2 focus-visible:ring-ember-400 ${selected ? 'border-ember-500 ring-2 ring-ember-200' : 'border-slateblue-200'} ${stop.warnings.length ? 'border-l-4 border-l-ember-600' : ''} ${isDragging ? 'opacity-40' : ''}`}
+      className={`cursor-grab rounded-lg border bg-white p-2 text-sm outline-none [contain-intrinsic-size:auto_7.5rem] [content-visibility:auto] focus-visible:ring-2 focus-visible:ring-ember-400 ${selected ? 'border-ember-500 ring-2 ring-ember-200' : 'border-slateblue-200'} ${stop.warnings.length ? 'border-l-4 border-l-ember-600' : ''} ${isDragging ? 'opacity-40' : ''}`}
       data-stop={stop.id}
       data-barn={stop.barnId}
       aria-label={`Stop ${stop.position}: ${stop.barnName}, arrival ${clock(stop.arrival)}`}
     >
+      <StopBody stop={stop} farrierId={farrierId} units={units} onMoves={onMoves} />
+    </li>
+  );
+});
+
+const StopBody = memo(function StopBody({ stop, farrierId, units, onMoves }: { stop: PlanStopView; farrierId: number; units: 'miles' | 'km'; onMoves: (m: Move[]) => void }) {
+  const pinned = stop.jobs.length > 0 && stop.jobs.every((j) => j.pinned);
+  const cautions = [...new Set(stop.jobs.flatMap((j) => j.cautions))];
+  return (
+    <>
       <div className="flex items-baseline justify-between gap-2">
         <span className="figure text-base font-medium text-slateblue-900">{clock(stop.arrival)}</span>
         <span className="figure text-[11px] text-slateblue-500" title="Drive into this stop">{stop.legDriveMinutes} min · {stop.legDistance.toFixed(1)} {unitWord(units)}</span>
@@ -204,7 +260,7 @@ const StopCard = memo(function StopCard({ stop, farrierId, units, selected, onSe
         <p key={i} className="mt-1 rounded bg-ember-50 px-2 py-1 text-xs font-medium text-ember-800" data-warning={w.code}>{w.message}</p>
       ))}
       {cautions.length > 0 && <p className="mt-1 text-[11px] leading-snug text-slateblue-500">⚠ {cautions.join(' · ')}</p>}
-    </li>
+    </>
   );
 });
 
@@ -222,13 +278,14 @@ function JobLine({ job }: { job: PlanJobView }) {
 
 const UnplannedLane = memo(function UnplannedLane({ items, selectedBarnId, onSelectBarn }: { items: UnplannedView[]; selectedBarnId: number | null; onSelectBarn: (id: number | null) => void }) {
   const { setNodeRef, isOver } = useDroppable({ id: 'lane:unplanned' });
+  const ids = useMemo(() => items.map((u) => `job:${u.jobId}`), [items]);
   return (
     <section ref={setNodeRef} className={`flex w-72 shrink-0 flex-col rounded-xl border bg-hay-50 ${isOver ? 'border-ember-400 ring-2 ring-ember-100' : 'border-hay-300'}`} data-lane="unplanned" aria-label="Unplanned jobs">
       <header className="border-b border-hay-200 px-3 py-2">
         <h3 className="text-sm font-semibold">Unplanned <span className="figure text-slateblue-500">{items.length}</span></h3>
         <p className="text-[11px] text-slateblue-500">Drag onto a farrier to plan; each shows why it was left out.</p>
       </header>
-      <SortableContext id="lane:unplanned" items={items.map((u) => `job:${u.jobId}`)} strategy={verticalListSortingStrategy}>
+      <SortableContext id="lane:unplanned" items={ids} strategy={verticalListSortingStrategy}>
         <ol className="flex max-h-[70vh] min-h-24 flex-col gap-1.5 overflow-y-auto p-2">
           {items.map((u) => (
             <UnplannedCard key={u.jobId} item={u} selected={selectedBarnId === u.barnId} onSelectBarn={onSelectBarn} />
@@ -239,7 +296,7 @@ const UnplannedLane = memo(function UnplannedLane({ items, selectedBarnId, onSel
   );
 });
 
-function UnplannedCard({ item, selected, onSelectBarn }: { item: UnplannedView; selected: boolean; onSelectBarn: (id: number | null) => void }) {
+const UnplannedCard = memo(function UnplannedCard({ item, selected, onSelectBarn }: { item: UnplannedView; selected: boolean; onSelectBarn: (id: number | null) => void }) {
   const { attributes, listeners, setNodeRef, transform, transition, isDragging } = useSortable({ id: `job:${item.jobId}` });
   return (
     <li
@@ -252,12 +309,20 @@ function UnplannedCard({ item, selected, onSelectBarn }: { item: UnplannedView; 
       data-job={item.jobId}
       data-barn={item.barnId}
     >
+      <UnplannedBody item={item} />
+    </li>
+  );
+});
+
+const UnplannedBody = memo(function UnplannedBody({ item }: { item: UnplannedView }) {
+  return (
+    <>
       <div className="flex justify-between gap-2">
         <span className="truncate font-semibold">{item.job.horseName}{item.job.lame && <span className="ml-1 text-ember-700">lame</span>}</span>
         <span className="figure shrink-0 text-slateblue-500">due {item.job.dueOn.slice(5)}</span>
       </div>
       <p className="truncate text-slateblue-600">{item.barnName} · {item.job.workTypes.join(', ')} · <span className="figure">{item.job.minutes}m</span></p>
       <p className="text-[11px] text-slateblue-500">{item.reasonText}</p>
-    </li>
+    </>
   );
-}
+});

@@ -118,7 +118,10 @@ function Screen({ initialDate, today, barns, homes, units, initialPlan }: Dispat
     refetchInterval: 250,
   });
 
-  const onMoves = useCallback((moves: Move[]) => move.mutate(moves), [move]);
+  // `mutate` keeps its identity across renders (the mutation object does not), so the board's memoised
+  // lanes and cards are not re-rendered just because a request started or ended.
+  const moveMutate = move.mutate;
+  const onMoves = useCallback((moves: Move[]) => moveMutate(moves), [moveMutate]);
   const busy = planDay.isPending || move.isPending || publish.isPending;
 
   const workingHomes = useMemo(() => {
