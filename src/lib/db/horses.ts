@@ -28,6 +28,8 @@ const SORTS: Record<HorseListQuery['sort'], string> = {
   name: 'h.name', owner: 'o.name', barn: 'b.name', cycleWeeks: 'h.cycle_weeks', lastVisitOn: 'h.last_visit_on', nextDueOn: 'h.next_due_on',
 };
 
+const NULLABLE_SORTS = new Set<HorseListQuery['sort']>(['lastVisitOn', 'nextDueOn']);
+
 const dateText = (v: unknown): string | null => (v == null ? null : v instanceof Date ? v.toISOString().slice(0, 10) : String(v).slice(0, 10));
 
 function fromRow(r: any, work: Map<number, { id: number; name: string }[]>): Horse {
@@ -86,7 +88,8 @@ export async function listHorses(db: Knex, practiceId: number, query: HorseListQ
   }
   const rows = await pageOf(q, query.page, query.pageSize, (b) => {
     const withCols = columns(b);
-    if (SORTS[query.sort].startsWith('h.')) withCols.orderByRaw(`${SORTS[query.sort]} IS NULL ${query.dir === 'asc' ? 'DESC' : 'ASC'}`);
+    // Nulls last only where a column can be null: on name or cycle weeks the extra term would stop MariaDB ordering by the index.
+    if (NULLABLE_SORTS.has(query.sort)) withCols.orderByRaw(`${SORTS[query.sort]} IS NULL ${query.dir === 'asc' ? 'DESC' : 'ASC'}`);
     return withCols.orderBy(SORTS[query.sort], query.dir).orderBy('h.id', query.dir);
   }, (r) => r);
   const work = await workTypesOf(db, rows.items.map((r: any) => r.id));

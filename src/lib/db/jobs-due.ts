@@ -155,21 +155,52 @@ export async function createJobsForRange(trx: Knex.Transaction, practiceId: numb
   });
   const candidates = await q.select('h.id', 'h.next_due_on', 'j.id as job_id').orderBy('h.id');
   const result: BatchResult = { created: 0, alreadyOpen: 0, withoutWork: 0, jobIds: [] };
-  for (const c of candidates) {
-    if (c.job_id) {
-      result.alreadyOpen += 1;
-      continue;
+  const fresh = candidates.filter((c) => {
+    if (c.job_id) result.alreadyOpen += 1;
+    return !c.job_id;
+  });
+  // In chunks: one query for the chunk's usual work, one multi-row insert of its jobs, one of their work.
+  for (let i = 0; i < fresh.length; i += BATCH_ROWS) {
+    const chunk = fresh.slice(i, i + BATCH_ROWS);
+    const work: { horse_id: number; id: number; minutes_per_horse: number }[] = await trx('horse_work_types as hw')
+      .join('work_types as w', 'w.id', 'hw.work_type_id')
+      .whereIn('hw.horse_id', chunk.map((c) => c.id))
+      .select('hw.horse_id', 'w.id', 'w.minutes_per_horse');
+    const byHorse = new Map<number, { id: number; minutes_per_horse: number }[]>();
+    for (const w of work) byHorse.set(w.horse_id, [...(byHorse.get(w.horse_id) ?? []), w]);
+    const rows: Record<string, unknown>[] = [];
+    for (const c of chunk) {
+      const minutes = (byHorse.get(c.id) ?? []).reduce((sum, w) => sum + w.minutes_per_horse, 0);
+      if (minutes === 0) {
+        result.withoutWork += 1;
+        continue;
+      }
+      const dueOn = dateText(c.next_due_on) ?? today;
+      rows.push({
+        practice_id: practiceId, horse_id: c.id, minutes, due_on: dueOn, state: 'due',
+        earliest_on: addDays(dueOn, -JOB_WINDOW.beforeDays), latest_on: addDays(dueOn, JOB_WINDOW.afterDays),
+      });
     }
-    const r = await insertJob(trx, practiceId, c.id, dateText(c.next_due_on) ?? today);
-    if (r === null) result.alreadyOpen += 1;
-    else if (r === 'no_work') result.withoutWork += 1;
-    else {
-      result.created += 1;
-      result.jobIds.push(r);
+    if (rows.length === 0) continue;
+    // A horse that got an open job meanwhile (another request) is refused by the unique open_horse_id
+    // and skipped by IGNORE; RETURNING lists only the jobs really inserted, each with its horse.
+    const { sql, bindings } = trx('jobs').insert(rows).toSQL().toNative();
+    const [inserted] = (await trx.raw(`${sql.replace(/^insert into/i, 'insert ignore into')} returning id, horse_id`, bindings)) as [{ id: number; horse_id: number }[]];
+    result.alreadyOpen += rows.length - inserted.length;
+    const jobWork = inserted.flatMap((j) => (byHorse.get(j.horse_id) ?? []).map((w) => ({ job_id: j.id, work_type_id: w.id })));
+    if (jobWork.length) await trx('job_work_types').insert(jobWork);
+    const order = new Map(inserted.map((j) => [j.horse_id, j.id]));
+    for (const c of chunk) {
+      const id = order.get(c.id);
+      if (id !== undefined) result.jobIds.push(id);
     }
+    result.created += inserted.length;
   }
   return result;
 }
+
+/** Horses per insert statement when creating jobs for a range (keeps each statement's size bounded). */
+const BATCH_ROWS = 500;
 
 /** A job of the practice, for cancelling. */
 export async function getJob(db: Knex | Knex.Transaction, practiceId: number, id: number): Promise<{ id: number; horseId: number; state: string } | null> {
