@@ -153,7 +153,7 @@ export async function createJobsForRange(trx: Knex.Transaction, practiceId: numb
     w.whereBetween('h.next_due_on', [batch.from, batch.to]);
     if (batch.includeOverdue) w.orWhere('h.next_due_on', '<', batch.from).orWhereNull('h.next_due_on');
   });
-  const candidates = await q.select('h.id', 'h.next_due_on', 'j.id as job_id').orderBy('h.id');
+  const candidates: { id: number; next_due_on: unknown; job_id: number | null }[] = await q.select('h.id', 'h.next_due_on', 'j.id as job_id').orderBy('h.id');
   const result: BatchResult = { created: 0, alreadyOpen: 0, withoutWork: 0, jobIds: [] };
   const fresh = candidates.filter((c) => {
     if (c.job_id) result.alreadyOpen += 1;
