@@ -7,6 +7,7 @@ import { annealTemperature, DEFAULT_SISR, greedyConstruct, recreate, recreateCan
 /** Share of recreate steps that use regret insertion instead of greedy insertion. */
 const REGRET_SHARE = 0.5;
 import { State } from './state';
+import { interchangeableFleet, recombine, RoutePool } from './set-partition';
 import type { Problem } from './problem';
 
 /** When to stop. At least one limit applies; with none given the engine stops after 10 seconds. */
@@ -154,6 +155,9 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
     let cycleStart = 0;
     let sinceBest = 0;
     const eps = 1e-9 * Math.max(1, m.typicalArcCost);
+    // interchangeable farriers (the benchmark fleets): recombine pooled routes at every cycle end
+    const pool = m.fleetObjective && interchangeableFleet(m) ? new RoutePool() : null;
+    if (pool) best.routes.forEach((r, f) => pool.add(r, best.evals[f].cost - m.fixedCost[f]));
     while ((stopReason as string) !== 'cancelled') {
       if (iterations >= maxIt) { stopReason = 'iterations'; break; }
       if (sinceBest >= noImp) { stopReason = 'no_improvement'; break; }
@@ -161,6 +165,16 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
       if (iterations - cycleStart >= cycle) {
         cycleStart = iterations;
         cycle = Math.min(maxCycle, cycle * 2);
+        if (pool) {
+          const routes = recombine(best, pool);
+          if (routes) {
+            const next = best.clone();
+            next.routes = routes;
+            next.refreshAll();
+            localSearch(next, rng);
+            if (next.cost < best.cost - eps) { best = next; improvements++; sinceBest = 0; }
+          }
+        }
         cur = best.clone();
       }
       const T = annealTemperature(m, (iterations - cycleStart) / cycle);
@@ -171,6 +185,7 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
       else recreate(cand, rng, DEFAULT_SISR, undefined, cands);
       iterations++;
       sinceBest++;
+      if (pool) for (const f of cand.touched) if (cand.routes[f].length) pool.add(cand.routes[f], cand.evals[f].cost - m.fixedCost[f]);
       if (cand.cost < cur.cost - T * Math.log(1 - rng.next() + 1e-300)) {
         cur = cand;
         if (cand.cost < best.cost - eps) {
