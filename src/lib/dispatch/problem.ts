@@ -51,8 +51,8 @@ export function barnClosedOn(barn: DayBarn, weekday: number): boolean {
 
 /**
  * How much leaving a job out weighs. Overdue horses first and lame horses before all (the product's
- * rule); a job due later in the horizon may be pulled forward when there is room. Every job is
- * optional to the engine so that a full day never forces overtime: the weight decides.
+ * rule); a job due later in the horizon may be pulled forward when there is room. Every job but a
+ * pinned one is optional to the engine so that a full day never forces overtime: the weight decides.
  * - priority 1 for a job due after the plan date; 3 + one per full week overdue (at most 9) otherwise;
  *   lame adds 5.
  * - penalty in cents per priority point: 2 000 + 20 per minute of work (a 60-min job: 2 000 + 1 200 = 3 200).
@@ -117,7 +117,9 @@ export function buildDayProblem(input: DayProblemInput): ProblemInput {
         needsQualified: j.workTypes.some((w) => w.needsQualified),
         needsForge: j.workTypes.some((w) => w.needsForge),
         priority,
-        optional: true,
+        // A pinned job is the dispatcher's decision: the engine must place it (or say why it cannot),
+        // never trade it away against driving or overtime.
+        optional: j.pinnedFarrierId == null,
         penalty,
         ...(hasWindow ? { windows: [{ startSec: j.ownerWindowStartMinute! * 60, endSec: j.ownerWindowEndMinute! * 60 }] } : {}),
         ...(j.pinnedFarrierId != null
