@@ -12,17 +12,13 @@ import { readFileSync } from 'node:fs';
 import { buildMatrix, loadRoadGraph, type LatLon } from '../src/lib/routing/index';
 import { readRegionSources, getRegionMeta } from '../src/lib/map/region';
 import { TileSet } from '../src/lib/map/tiles';
+import { Random } from '../src/lib/random.ts';
 
-function mulberry32(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** The project's seeded generator, so the point pairs are the same on every run. */
+const mulberry32 = (seed: number) => {
+  const random = new Random(seed);
+  return () => random.next();
+};
 const ms = (t0: number) => performance.now() - t0;
 const median = (xs: number[]) => xs.slice().sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
 

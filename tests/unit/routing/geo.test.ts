@@ -4,20 +4,15 @@ import { describe, expect, it } from 'vitest';
 import geodesic from 'geographiclib-geodesic';
 import * as turf from '@turf/turf';
 import { haversineM, bearingDeg, turnAngleDeg } from '../../../src/lib/routing/geo';
+import { Random } from '../../../src/lib/random.ts';
 
 const WGS84 = geodesic.Geodesic.WGS84;
 
-/** Small seeded generator (mulberry32) so the point pairs are the same on every run. */
-function mulberry32(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** The project's seeded generator, so the point pairs are the same on every run. */
+const mulberry32 = (seed: number) => {
+  const random = new Random(seed);
+  return () => random.next();
+};
 
 const rel = (a: number, b: number) => Math.abs(a - b) / b;
 

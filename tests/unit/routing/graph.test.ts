@@ -16,6 +16,7 @@ import {
   resolveSpeeds,
 } from '../../../src/lib/routing/index';
 import { searchFrom } from '../../../src/lib/routing/search';
+import { Random } from '../../../src/lib/random.ts';
 
 const roads = JSON.parse(readFileSync('tiles/source/roads.geojson', 'utf8'));
 const addresses: { lat: number; lon: number; id: string }[] = JSON.parse(readFileSync('tiles/source/addresses.geojson', 'utf8')).features.map(
@@ -23,16 +24,11 @@ const addresses: { lat: number; lon: number; id: string }[] = JSON.parse(readFil
 );
 const graph = loadRoadGraph(roads);
 
-function mulberry32(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** The project's seeded generator, so the point pairs are the same on every run. */
+const mulberry32 = (seed: number) => {
+  const random = new Random(seed);
+  return () => random.next();
+};
 
 describe('road graph of the demo region', () => {
   it('has junction nodes, one-way pieces and a main component holding nearly every node', () => {
