@@ -115,28 +115,7 @@ export interface StoredRoute {
 }
 
 /** A route to write; ids are assigned by the database. */
-export interface RouteWrite {
-  farrierId: number;
-  startAt: Date;
-  endAt: Date;
-  driveSeconds: number;
-  distanceM: number;
-  workSeconds: number;
-  overtimeSeconds: number;
-  breakStartAt: Date | null;
-  stops: {
-    position: number;
-    barnId: number;
-    arrivalAt: Date;
-    startAt: Date;
-    departureAt: Date;
-    legDriveSeconds: number;
-    legDistanceM: number;
-    windowStartAt: Date | null;
-    windowEndAt: Date | null;
-    jobIds: number[];
-  }[];
-}
+export type RouteWrite = Omit<StoredRoute, 'id' | 'stops'> & { stops: Omit<StoredStop, 'id' | 'routeId'>[] };
 
 const bool = (v: unknown) => v === true || v === 1 || v === '1';
 const parseJson = <T>(v: unknown): T | null => (v == null ? null : typeof v === 'string' ? (JSON.parse(v) as T) : (v as T));
