@@ -94,6 +94,8 @@ export interface PlanStopView {
   minutes: number;
   jobs: PlanJobView[];
   warnings: PlanWarning[];
+  /** What the farrier has marked on the day sheet for this stop, or null before any mark. */
+  progress: { state: 'arrived' | 'done' | 'skipped'; arrived: string | null; departed: string | null; skipReason: string | null } | null;
 }
 
 export interface PlanRouteView {

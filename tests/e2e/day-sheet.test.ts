@@ -128,6 +128,21 @@ describe('the day sheet in a browser', () => {
     expect(row).toMatchObject({ actualMinutes: 395, actualDistance: 52, plannedDistanceDays: 0, daysWorked: 1 });
   });
 
+  it('the dispatcher’s board shows the farrier’s marks on the stop cards', async () => {
+    const browser = await launch({ viewport: { width: 1400, height: 900 } });
+    try {
+      await signIn(browser.page, 'dispatcher@demo.test');
+      await browser.page.goto(`${APP_URL}/dispatch?date=${DATE}`);
+      await hydrated(browser.page);
+      await browser.page.waitForSelector('[data-progress="done"]');
+      expect(await browser.page.locator('[data-progress="done"]').first().innerText()).toMatch(/^Done \d\d:\d\d$/);
+      expect(await browser.page.locator('[data-progress="arrived"]').count()).toBeGreaterThan(0);
+      await screenshot(browser.page, 'dispatch-progress-marks');
+    } finally {
+      await browser.close();
+    }
+  });
+
   it('the dispatcher sees the texts on the Messages page', async () => {
     const browser = await launch({ viewport: { width: 1280, height: 900 } });
     try {

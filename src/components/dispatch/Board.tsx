@@ -223,6 +223,22 @@ const StopCard = memo(function StopCard({ stop, farrierId, units, selected, onSe
   );
 });
 
+/** The farrier's mark from the day sheet: arrived, done or skipped, with its time or reason. */
+function StopProgress({ progress }: { progress: NonNullable<PlanStopView['progress']> }) {
+  const tone = progress.state === 'done' ? 'bg-emerald-100 text-emerald-900' : progress.state === 'skipped' ? 'bg-ember-100 text-ember-900' : 'bg-hay-200 text-slateblue-900';
+  const text =
+    progress.state === 'done'
+      ? `Done${progress.departed ? ` ${clock(progress.departed)}` : ''}`
+      : progress.state === 'skipped'
+        ? `Skipped${progress.skipReason ? `: ${progress.skipReason}` : ''}`
+        : `Arrived${progress.arrived ? ` ${clock(progress.arrived)}` : ''}`;
+  return (
+    <p className={`mt-0.5 inline-block rounded px-1.5 py-0.5 text-[11px] font-semibold ${tone}`} data-progress={progress.state}>
+      <span className="figure">{text}</span>
+    </p>
+  );
+}
+
 const StopBody = memo(function StopBody({ stop, farrierId, units, onMoves }: { stop: PlanStopView; farrierId: number; units: 'miles' | 'km'; onMoves: (m: Move[]) => void }) {
   const pinned = stop.jobs.length > 0 && stop.jobs.every((j) => j.pinned);
   const cautions = [...new Set(stop.jobs.flatMap((j) => j.cautions))];
@@ -233,6 +249,7 @@ const StopBody = memo(function StopBody({ stop, farrierId, units, onMoves }: { s
         <span className="figure text-[11px] text-slateblue-500" title="Drive into this stop">{stop.legDriveMinutes} min · {stop.legDistance.toFixed(1)} {unitWord(units)}</span>
       </div>
       <p className="truncate font-semibold">{stop.barnName}</p>
+      {stop.progress && <StopProgress progress={stop.progress} />}
       {stop.window && <p className="figure text-[11px] text-slateblue-500">arrival window {clock(stop.window.start)}–{clock(stop.window.end)}</p>}
       <ul className="mt-1 space-y-0.5">
         {stop.jobs.map((j) => (

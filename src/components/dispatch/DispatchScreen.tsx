@@ -63,6 +63,8 @@ function Screen({ initialDate, today, barns, homes, units, initialPlan }: Dispat
       }
     },
     initialData: date === initialDate ? initialPlan : undefined,
+    // A published day is being worked: pick up the farriers' marks from their day sheets.
+    refetchInterval: (q) => (q.state.data?.state === 'published' ? 30_000 : false),
   });
   const view = plan.data ?? null;
 

@@ -383,3 +383,20 @@ export async function setJobStates(db: Db, practiceId: number, ids: number[], st
 export async function setJobPin(db: Db, practiceId: number, jobId: number, pin: { farrierId: number | null; position: number | null }): Promise<void> {
   await db('jobs').where({ practice_id: practiceId, id: jobId }).update({ pinned_farrier_id: pin.farrierId, pinned_position: pin.position, updated_at: db.fn.now(3) });
 }
+
+/** The newest day-sheet mark of each stop (arrived, done or skipped), keyed by stop id. */
+export async function stopProgress(
+  db: Db,
+  practiceId: number,
+  stopIds: number[],
+): Promise<Map<number, { state: 'arrived' | 'done' | 'skipped'; arrivedAt: Date | null; departedAt: Date | null; skipReason: string | null }>> {
+  const out = new Map<number, { state: 'arrived' | 'done' | 'skipped'; arrivedAt: Date | null; departedAt: Date | null; skipReason: string | null }>();
+  if (stopIds.length === 0) return out;
+  const rows: { stop_id: number; state: 'arrived' | 'done' | 'skipped'; arrived_at: Date | null; departed_at: Date | null; skip_reason: string | null }[] = await db('visit_logs')
+    .where({ practice_id: practiceId })
+    .whereIn('stop_id', stopIds)
+    .orderBy('id')
+    .select('stop_id', 'state', 'arrived_at', 'departed_at', 'skip_reason');
+  for (const r of rows) out.set(r.stop_id, { state: r.state, arrivedAt: r.arrived_at, departedAt: r.departed_at, skipReason: r.skip_reason });
+  return out;
+}

@@ -1,6 +1,6 @@
 import type { Knex } from 'knex';
 import type { Practice } from '../db/practices.ts';
-import { getPlan, listDayBarns, listDayFarriers, listDayJobs, loadRoutes, type DayJob } from '../db/plans.ts';
+import { getPlan, listDayBarns, listDayFarriers, listDayJobs, loadRoutes, stopProgress, type DayJob } from '../db/plans.ts';
 import { directions, getRoadGraph } from '../routing/index.ts';
 import type { PlanJobView, PlanRouteView, PlanView, PlanWarning } from '../../schemas/plans.ts';
 import { isoLocal } from './time.ts';
@@ -50,6 +50,7 @@ export async function planView(db: Knex | Knex.Transaction, practice: Practice, 
   const barns = new Map((await listDayBarns(db, practice.id, barnIds)).map((b) => [b.id, b]));
   const farriers = new Map((await listDayFarriers(db, practice.id, { includeArchived: true })).map((f) => [f.id, f]));
   const warnings = plan.figures?.warnings ?? {};
+  const progress = await stopProgress(db, practice.id, routes.flatMap((r) => r.stops.map((s) => s.id)));
 
   const routeViews: PlanRouteView[] = routes
     .map((r) => {
@@ -74,6 +75,11 @@ export async function planView(db: Knex | Knex.Transaction, practice: Practice, 
           minutes: Math.round((s.departureAt.getTime() - s.startAt.getTime()) / 60000),
           jobs: stopJobs.map(jobView),
           warnings: list.filter((w) => w.jobId !== undefined && s.jobIds.includes(w.jobId)),
+          progress: (() => {
+            const p = progress.get(s.id);
+            if (!p) return null;
+            return { state: p.state, arrived: p.arrivedAt ? isoLocal(p.arrivedAt, tz) : null, departed: p.departedAt ? isoLocal(p.departedAt, tz) : null, skipReason: p.skipReason };
+          })(),
         };
       });
       return {
