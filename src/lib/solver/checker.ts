@@ -52,9 +52,9 @@ export interface CheckedStop {
 }
 
 /** A route as the checker re-timed and costed it (same shape as the engine's routes). */
-export interface CheckedRoute {
+/** A route's timing and totals, shared by the engine's plan and the checker's re-simulation of it. */
+export interface RouteTotals {
   farrierId: string;
-  stops: CheckedStop[];
   breakStartSec?: number;
   startSec: number;
   endSec: number;
@@ -63,6 +63,10 @@ export interface CheckedRoute {
   workSec: number;
   overtimeSec: number;
   costCents: number;
+}
+
+export interface CheckedRoute extends RouteTotals {
+  stops: CheckedStop[];
 }
 
 /** Verdict of a check: feasible only when `violations` is empty; `costs` as re-derived from scratch. */

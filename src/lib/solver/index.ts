@@ -7,7 +7,7 @@ export type { Problem, ProblemInput, ProblemIssue, Farrier, Barn, Job, TimeWindo
 export { solve } from './solve';
 export type { SolveOptions, SolveResult, StopRule, Progress, PlannedRoute, PlannedStop, PlannedJob } from './solve';
 export { checkSolution, evaluateRoutes } from './checker';
-export type { CheckResult, Violation, ViolationCode, RouteInput, CheckedRoute, CheckedStop } from './checker';
+export type { CheckResult, Violation, ViolationCode, RouteInput, CheckedRoute, CheckedStop, RouteTotals } from './checker';
 export type { UnplannedReason } from './diagnose';
 export { solveInWorker, SolveCancelledError } from './worker';
 export type { WorkerSolveOptions } from './worker';

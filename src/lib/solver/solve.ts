@@ -12,6 +12,7 @@ const REGRET_SHARE = 0.5;
 import { State } from './state';
 import { interchangeableFleet, recombine, RoutePool } from './set-partition';
 import type { Problem } from './problem';
+import type { RouteTotals } from './checker';
 
 /** When to stop. At least one limit applies; with none given the engine stops after 10 seconds. */
 export interface StopRule {
@@ -57,17 +58,8 @@ export interface PlannedStop {
   jobs: PlannedJob[];
 }
 /** One farrier's day: stops in order, times, drive, overtime and cost in cents. */
-export interface PlannedRoute {
-  farrierId: string;
+export interface PlannedRoute extends RouteTotals {
   stops: PlannedStop[];
-  breakStartSec?: number;
-  startSec: number;
-  endSec: number;
-  driveSec: number;
-  distanceM: number;
-  workSec: number;
-  overtimeSec: number;
-  costCents: number;
 }
 /** The plan `solve` returns: routes, unplanned jobs with reasons, cost and run statistics. */
 export interface SolveResult {
