@@ -1,6 +1,7 @@
 import { keepPreviousData, useQuery } from '@tanstack/react-query';
 import { useEffect, useState, type ReactNode } from 'react';
 import { api } from '../../lib/client/api.ts';
+import Pager from './Pager.tsx';
 
 /** One page of a records list, as every list endpoint answers. */
 export interface PageOf<T> {
@@ -116,14 +117,7 @@ export function DataTable<T extends { id?: number }>({
           </tbody>
         </table>
       </div>
-      <div className="flex items-center justify-between border-t border-slateblue-100 px-3 py-2 text-xs text-slateblue-600">
-        <span className="figure" data-testid="table-total">{data ? `${data.total} ${data.total === 1 ? 'record' : 'records'}` : ''}</span>
-        <div className="flex items-center gap-2">
-          <button type="button" className="btn-quiet px-2 py-1" disabled={page <= 1} onClick={() => setPage(page - 1)}>Previous</button>
-          <span className="figure">Page {page} of {pages}</span>
-          <button type="button" className="btn-quiet px-2 py-1" disabled={page >= pages} onClick={() => setPage(page + 1)}>Next</button>
-        </div>
-      </div>
+      <Pager page={page} pages={pages} setPage={setPage} summary={<span className="figure" data-testid="table-total">{data ? `${data.total} ${data.total === 1 ? 'record' : 'records'}` : ''}</span>} />
     </div>
   );
 }

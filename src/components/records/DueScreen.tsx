@@ -6,6 +6,7 @@ import { api, ApiError } from '../../lib/client/api.ts';
 import { jobBatchSchema } from '../../schemas/jobs.ts';
 import { useDebounced } from './DataTable.tsx';
 import { apiErrors, zodErrors } from './format.ts';
+import Pager from './Pager.tsx';
 
 type Bucket = 'all' | 'overdue' | 'this_week' | 'later';
 interface DueHorse { horseId: number; horseName: string; ownerName: string; barnId: number; barnName: string; cycleWeeks: number; lastVisitOn: string | null; nextDueOn: string | null; bucket: Exclude<Bucket, 'all'>; lastFarrierName: string | null; work: string[]; minutes: number; needsSecondPerson: boolean; openJob: { id: number; state: string; dueOn: string } | null }
@@ -120,14 +121,7 @@ function Screen({ barns, farriers, workTypes }: { barns: Option[]; farriers: Opt
             </tbody>
           </table>
         </div>
-        <div className="flex items-center justify-between border-t border-slateblue-100 px-3 py-2 text-xs text-slateblue-600">
-          <span className="figure">{data ? `${data.total} horses · today is ${data.today} (practice time)` : ''}</span>
-          <div className="flex items-center gap-2">
-            <button type="button" className="btn-quiet px-2 py-1" disabled={page <= 1} onClick={() => setPage(page - 1)}>Previous</button>
-            <span className="figure">Page {page} of {pages}</span>
-            <button type="button" className="btn-quiet px-2 py-1" disabled={page >= pages} onClick={() => setPage(page + 1)}>Next</button>
-          </div>
-        </div>
+        <Pager page={page} pages={pages} setPage={setPage} summary={<span className="figure">{data ? `${data.total} horses · today is ${data.today} (practice time)` : ''}</span>} />
       </div>
       {data && <CreateJobs today={data.today} filters={filters} onDone={setNotice} />}
     </div>
