@@ -71,7 +71,7 @@ const lanes: PlanRouteView[] = Array.from({ length: 10 }, (_, f) => ({
   start: iso(450), end: iso(1020), breakStart: null, driveMinutes: 90, distance: 40, workMinutes: 480, overtimeMinutes: 0, horses: 60, warnings: [], cautions: [],
   stops: Array.from({ length: 30 }, (_, s): PlanStopView => ({
     id: f * 100 + s + 1, position: s + 1, barnId: f * 100 + s + 1, barnName: `Barn ${f}-${s}`, lat: 38.2, lon: -84.6, arrival: iso(450 + s * 18), start: iso(455 + s * 18), departure: iso(465 + s * 18),
-    legDriveMinutes: 8, legDistance: 3.2, window: null, minutes: 60, warnings: [],
+    legDriveMinutes: 8, legDistance: 3.2, window: null, minutes: 60, warnings: [], progress: null,
     jobs: [1, 2].map((k) => ({ id: (f * 100 + s) * 10 + k, horseId: k, horseName: `Horse ${k}`, ownerName: 'Owner', workTypes: ['Trim'], minutes: 30, dueOn: '2026-12-01', lame: false, pinned: false, pinnedPosition: null, cautions: [] })),
   })),
 }));
