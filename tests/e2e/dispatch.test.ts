@@ -77,14 +77,20 @@ describe('the dispatcher plans a day in the browser', () => {
     expect(String(holder.farrierId)).not.toBe(laneC);
     await screenshot(page, 'dispatch-e2e-moved');
 
-    // Publish, reload, same plan.
-    const before = await page.$$eval('[data-lane]', (els) => els.map((e) => [e.getAttribute('data-lane'), [...e.querySelectorAll('[data-barn]')].map((c) => c.getAttribute('data-barn'))]));
+    // Publish, reload, same plan. Lanes mount only the cards near their view and a drop scrolls the
+    // receiving lane, so every lane is read from its top, with its figures, before and after.
+    const shown = async () => {
+      await page.$$eval('[data-lane-scroll]', (els) => els.forEach((e) => { e.scrollTop = 0; }));
+      await page.evaluate(() => new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r))));
+      return page.$$eval('[data-lane]', (els) => els.map((e) => [e.getAttribute('data-lane'), e.querySelector('[data-testid=lane-figures]')?.textContent ?? '', [...e.querySelectorAll('[data-barn]')].map((c) => c.getAttribute('data-barn'))]));
+    };
+    const before = await shown();
     await page.click('[data-testid=publish-button]');
     await page.waitForSelector('[data-testid=plan-state]:has-text("Published")');
     await page.reload();
     await hydrated(page);
     await page.waitForSelector('[data-testid=plan-state]:has-text("Published")');
-    const after = await page.$$eval('[data-lane]', (els) => els.map((e) => [e.getAttribute('data-lane'), [...e.querySelectorAll('[data-barn]')].map((c) => c.getAttribute('data-barn'))]));
+    const after = await shown();
     expect(after).toEqual(before);
     await screenshot(page, 'dispatch-e2e-published');
   }, 180_000);

@@ -3,13 +3,14 @@
  * with dnd-kit, by mouse or keyboard (focus a card, Space to lift, arrow keys to move, Space to drop).
  * A drop becomes moves for the plans API; the server re-times and answers, nothing moves on its own.
  */
-import { memo, useCallback, useMemo, useRef, useState } from 'react';
+import { memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import {
   DndContext, DragOverlay, KeyboardSensor, PointerSensor, closestCenter, useDroppable, useSensor, useSensors,
   type Collision, type CollisionDetection, type DragEndEvent, type DragStartEvent,
 } from '@dnd-kit/core';
 import { SortableContext, sortableKeyboardCoordinates, useSortable, verticalListSortingStrategy } from '@dnd-kit/sortable';
 import { CSS } from '@dnd-kit/utilities';
+import { defaultRangeExtractor, useVirtualizer, type Range } from '@tanstack/react-virtual';
 import type { Move, PlanJobView, PlanRouteView, PlanStopView, UnplannedView } from '../../schemas/plans.ts';
 
 const clock = (iso: string) => iso.slice(11, 16);
@@ -24,6 +25,8 @@ export interface BoardProps {
   onSelectBarn: (barnId: number | null) => void;
   onMoves: (moves: Move[]) => void;
   busy: boolean;
+  /** Farriers whose lanes show a drop ahead of the server's re-timed answer. */
+  retiming?: ReadonlySet<number>;
 }
 
 type DragItem = { kind: 'stop'; stop: PlanStopView; farrierId: number } | { kind: 'job'; job: PlanJobView; barnName: string; farrierId: number | null };
@@ -77,13 +80,16 @@ function useLaneCollisions(): CollisionDetection {
   }, []);
 }
 
-export default function Board({ routes, unplanned, units, selectedBarnId, onSelectBarn, onMoves, busy }: BoardProps) {
+export default function Board({ routes, unplanned, units, selectedBarnId, onSelectBarn, onMoves, busy, retiming }: BoardProps) {
   const collisionDetection = useLaneCollisions();
   const sensors = useSensors(
     useSensor(PointerSensor, { activationConstraint: { distance: 6 } }),
     useSensor(KeyboardSensor, { coordinateGetter: sortableKeyboardCoordinates }),
   );
   const [active, setActive] = useState<DragItem | null>(null);
+  // The first job of the last drop: the lane that holds it once the plan answers scrolls to it.
+  const [revealJobId, setRevealJobId] = useState<number | null>(null);
+  useEffect(() => setRevealJobId(null), [routes]);
 
   const index = useMemo(() => {
     const stops = new Map<string, { stop: PlanStopView; farrierId: number; index: number }>();
@@ -120,20 +126,27 @@ export default function Board({ routes, unplanned, units, selectedBarnId, onSele
       toFarrierId = target.farrierId;
       position = target.index + 1;
     } else return;
-    if (item.kind === 'stop') {
-      if (toFarrierId === item.farrierId && position === undefined) return;
-      onMoves(stopMoves(item.stop, toFarrierId, position));
-    } else {
-      if (toFarrierId === item.farrierId && position === undefined) return;
-      onMoves([position === undefined ? { jobId: item.job.id, toFarrierId } : { jobId: item.job.id, toFarrierId, position }]);
-    }
+    if (toFarrierId === item.farrierId && position === undefined) return;
+    const moves = item.kind === 'stop' ? stopMoves(item.stop, toFarrierId, position) : [position === undefined ? { jobId: item.job.id, toFarrierId } : { jobId: item.job.id, toFarrierId, position }];
+    setRevealJobId(moves[0]?.jobId ?? null);
+    onMoves(moves);
   };
 
   return (
     <DndContext sensors={sensors} collisionDetection={collisionDetection} onDragStart={onDragStart} onDragEnd={onDragEnd} onDragCancel={() => setActive(null)}>
       <div className={`flex gap-3 overflow-x-auto pb-3 ${busy ? 'opacity-70' : ''}`} data-testid="board">
         {routes.map((r) => (
-          <Lane key={r.farrierId} route={r} units={units} selectedBarnId={selectedBarnId} onSelectBarn={onSelectBarn} onMoves={onMoves} />
+          <Lane
+            key={r.farrierId}
+            route={r}
+            units={units}
+            selectedBarnId={selectedBarnId}
+            activeStopId={active?.kind === 'stop' && active.farrierId === r.farrierId ? active.stop.id : null}
+            revealJobId={revealJobId}
+            retiming={retiming?.has(r.farrierId) ?? false}
+            onSelectBarn={onSelectBarn}
+            onMoves={onMoves}
+          />
         ))}
         <UnplannedLane items={unplanned} selectedBarnId={selectedBarnId} onSelectBarn={onSelectBarn} />
       </div>
@@ -150,16 +163,81 @@ export default function Board({ routes, unplanned, units, selectedBarnId, onSele
   );
 }
 
-const Lane = memo(function Lane({ route, units, selectedBarnId, onSelectBarn, onMoves }: { route: PlanRouteView; units: 'miles' | 'km'; selectedBarnId: number | null; onSelectBarn: (id: number | null) => void; onMoves: (m: Move[]) => void }) {
+/** A card's height before it is measured (a one-horse stop without warnings), and the space between cards. */
+const CARD_ESTIMATE_PX = 124;
+const CARD_GAP_PX = 8;
+const LANE_PADDING_PX = 8;
+
+/**
+ * One farrier's lane. Its stops scroll inside the lane and only the cards in and near view are mounted
+ * (@tanstack/react-virtual): every mounted sortable card re-renders whenever dnd-kit's drag state
+ * changes (drag start, each new target, drop), so a long day's 50-stop lanes would otherwise make each
+ * of those a few hundred milliseconds of rendering. The card being dragged stays mounted wherever the
+ * lane is scrolled, because dnd-kit measures and moves it. Cards are placed with `top`, not a transform,
+ * so dnd-kit's own transforms on them still apply and no card becomes a compositing layer of its own.
+ * When a barn is selected (on the map or on another card) the lane scrolls its stop there into view,
+ * and after a drop the lane that receives the moved work scrolls to where it landed.
+ */
+const Lane = memo(function Lane({ route, units, selectedBarnId, activeStopId, revealJobId, retiming, onSelectBarn, onMoves }: {
+  route: PlanRouteView;
+  units: 'miles' | 'km';
+  selectedBarnId: number | null;
+  /** The stop being dragged when it belongs to this lane, else null. */
+  activeStopId: number | null;
+  /** A job just moved by the dispatcher: the lane holding it scrolls to it. */
+  revealJobId: number | null;
+  /** The lane shows a drop whose times, figures and warnings the server is still working out. */
+  retiming: boolean;
+  onSelectBarn: (id: number | null) => void;
+  onMoves: (m: Move[]) => void;
+}) {
   const { setNodeRef, isOver } = useDroppable({ id: `lane:${route.farrierId}` });
   const empty = route.stops.length === 0;
   const laneWarnings = route.warnings;
   const items = useMemo(() => route.stops.map((s) => `stop:${s.id}`), [route.stops]);
+  const scrollRef = useRef<HTMLDivElement>(null);
+  const activeIndex = activeStopId === null ? -1 : route.stops.findIndex((s) => s.id === activeStopId);
+  const rangeExtractor = useCallback((range: Range) => {
+    const out = defaultRangeExtractor(range);
+    if (activeIndex >= 0 && !out.includes(activeIndex)) {
+      out.push(activeIndex);
+      out.sort((a, b) => a - b);
+    }
+    return out;
+  }, [activeIndex]);
+  const stops = route.stops;
+  const virtualizer = useVirtualizer({
+    count: stops.length,
+    getScrollElement: () => scrollRef.current,
+    estimateSize: () => CARD_ESTIMATE_PX,
+    getItemKey: (i) => stops[i]!.id,
+    gap: CARD_GAP_PX,
+    paddingStart: LANE_PADDING_PX,
+    paddingEnd: LANE_PADDING_PX,
+    overscan: 3,
+    rangeExtractor,
+  });
+
+  // Bring a stop into the lane's view: the selected barn's (when the selection changes) or the one a drop just moved.
+  const stopsRef = useRef(stops);
+  stopsRef.current = stops;
+  useEffect(() => {
+    if (selectedBarnId === null) return;
+    const i = stopsRef.current.findIndex((s) => s.barnId === selectedBarnId);
+    if (i >= 0) virtualizer.scrollToIndex(i, { align: 'auto' });
+  }, [selectedBarnId, virtualizer]);
+  useEffect(() => {
+    if (revealJobId === null) return;
+    const i = stops.findIndex((s) => s.jobs.some((j) => j.id === revealJobId));
+    if (i >= 0) virtualizer.scrollToIndex(i, { align: 'auto' });
+  }, [revealJobId, stops, virtualizer]);
+
   return (
-    <section ref={setNodeRef} className={`flex w-72 shrink-0 flex-col rounded-xl border bg-white shadow-sm ${isOver ? 'border-ember-400 ring-2 ring-ember-100' : 'border-slateblue-100'}`} data-lane={route.farrierId} aria-label={`Route of ${route.farrierName}`}>
+    <section ref={setNodeRef} className={`flex w-72 shrink-0 flex-col rounded-xl border bg-white shadow-sm ${isOver ? 'border-ember-400 ring-2 ring-ember-100' : 'border-slateblue-100'}`} data-lane={route.farrierId} data-retiming={retiming ? 'true' : undefined} aria-busy={retiming} aria-label={`Route of ${route.farrierName}`}>
       <header className="rounded-t-xl border-b border-slateblue-100 px-3 py-2" style={{ borderTop: `4px solid ${route.colour}` }}>
         <div className="flex items-center justify-between gap-2">
           <h3 className="truncate text-sm font-semibold">{route.farrierName}</h3>
+          {retiming && <span className="shrink-0 text-[11px] text-slateblue-500" role="status">re-timing…</span>}
           <span className="flex gap-1 text-[10px] font-semibold uppercase tracking-wide text-slateblue-500">
             {route.qualified && <span title="Qualified for therapeutic work">Thera</span>}
             {route.hasForge ? <span title="Truck has a forge">Forge</span> : <span className="text-ember-700" title="No forge on this truck">No forge</span>}
@@ -169,7 +247,7 @@ const Lane = memo(function Lane({ route, units, selectedBarnId, onSelectBarn, on
         {empty ? (
           <p className="mt-1 text-xs text-slateblue-500">No stops: drop work here</p>
         ) : (
-          <dl className="mt-1 grid grid-cols-3 gap-x-2 gap-y-0.5 text-[11px] text-slateblue-600" data-testid="lane-figures">
+          <dl className={`mt-1 grid grid-cols-3 gap-x-2 gap-y-0.5 text-[11px] text-slateblue-600 ${retiming ? 'opacity-50' : ''}`} data-testid="lane-figures">
             <div><dt className="sr-only">Day</dt><dd className="figure text-slateblue-900">{clock(route.start)}–{clock(route.end)}</dd></div>
             <div><dt className="sr-only">Drive</dt><dd className="figure">{hm(route.driveMinutes)} drive</dd></div>
             <div><dt className="sr-only">Distance</dt><dd className="figure">{route.distance.toFixed(1)} {unitWord(units)}</dd></div>
@@ -186,11 +264,18 @@ const Lane = memo(function Lane({ route, units, selectedBarnId, onSelectBarn, on
         ))}
       </header>
       <SortableContext id={`lane:${route.farrierId}`} items={items} strategy={verticalListSortingStrategy}>
-        <ol className="flex min-h-24 flex-1 flex-col gap-2 p-2">
-          {route.stops.map((s) => (
-            <StopCard key={s.id} stop={s} farrierId={route.farrierId} units={units} selected={selectedBarnId === s.barnId} onSelectBarn={onSelectBarn} onMoves={onMoves} />
-          ))}
-        </ol>
+        <div ref={scrollRef} className="max-h-[70vh] min-h-24 flex-1 overflow-y-auto" data-lane-scroll>
+          <ol className="relative" style={{ height: virtualizer.getTotalSize() }} aria-label={`${route.stops.length} stops`}>
+            {virtualizer.getVirtualItems().map((v) => {
+              const s = stops[v.index]!;
+              return (
+                <li key={v.key} ref={virtualizer.measureElement} data-index={v.index} className="absolute inset-x-2" style={{ top: v.start }}>
+                  <StopCard stop={s} farrierId={route.farrierId} units={units} selected={selectedBarnId === s.barnId} onSelectBarn={onSelectBarn} onMoves={onMoves} />
+                </li>
+              );
+            })}
+          </ol>
+        </div>
       </SortableContext>
     </section>
   );
@@ -198,28 +283,26 @@ const Lane = memo(function Lane({ route, units, selectedBarnId, onSelectBarn, on
 
 /**
  * A stop's card: a thin sortable shell (it re-renders whenever dnd-kit's drag state changes, which is
- * unavoidable for a sortable item) around a memoised body that re-renders only when the stop changes.
- * `content-visibility: auto` lets the browser skip style, layout and paint of cards scrolled out of
- * view (a long lane holds dozens), remembering each card's last size so the lane keeps its height and
- * dnd-kit's measurements stay true; the cards stay in the DOM, so every one remains a drop target.
+ * unavoidable for a sortable item, hence the virtualised lane) around a memoised body that re-renders
+ * only when the stop changes.
  */
 const StopCard = memo(function StopCard({ stop, farrierId, units, selected, onSelectBarn, onMoves }: { stop: PlanStopView; farrierId: number; units: 'miles' | 'km'; selected: boolean; onSelectBarn: (id: number | null) => void; onMoves: (m: Move[]) => void }) {
   const { attributes, listeners, setNodeRef, transform, transition, isDragging } = useSortable({ id: `stop:${stop.id}` });
   const style = { transform: CSS.Translate.toString(transform), transition };
   return (
-    <li
+    <div
       ref={setNodeRef}
       style={style}
       {...attributes}
       {...listeners}
       onClick={() => onSelectBarn(selected ? null : stop.barnId)}
-      className={`cursor-grab rounded-lg border bg-white p-2 text-sm outline-none [contain-intrinsic-size:auto_7.5rem] [content-visibility:auto] focus-visible:ring-2 focus-visible:ring-ember-400 ${selected ? 'border-ember-500 ring-2 ring-ember-200' : 'border-slateblue-200'} ${stop.warnings.length ? 'border-l-4 border-l-ember-600' : ''} ${isDragging ? 'opacity-40' : ''}`}
+      className={`cursor-grab rounded-lg border bg-white p-2 text-sm outline-none focus-visible:ring-2 focus-visible:ring-ember-400 ${selected ? 'border-ember-500 ring-2 ring-ember-200' : 'border-slateblue-200'} ${stop.warnings.length ? 'border-l-4 border-l-ember-600' : ''} ${isDragging ? 'opacity-40' : ''}`}
       data-stop={stop.id}
       data-barn={stop.barnId}
       aria-label={`Stop ${stop.position}: ${stop.barnName}, arrival ${clock(stop.arrival)}`}
     >
       <StopBody stop={stop} farrierId={farrierId} units={units} onMoves={onMoves} />
-    </li>
+    </div>
   );
 });
 

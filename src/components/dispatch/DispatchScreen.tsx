@@ -3,15 +3,17 @@
  * board. Reads and writes through the plans API with react-query; a 409 (someone else edited) reloads
  * the plan and says so, rather than overwriting their work.
  */
-import { lazy, Suspense, useCallback, useEffect, useMemo, useState } from 'react';
+import { lazy, Suspense, useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import QueryRoot from '../QueryRoot.tsx';
 import { api, ApiError } from '../../lib/client/api.ts';
 import type { Move, PlanProgressView, PlanView } from '../../schemas/plans.ts';
 import type { MapBarn, MapHome } from '../map/map-layers.ts';
+import { previewMoves } from '../../lib/dispatch/preview.ts';
 import Board from './Board.tsx';
 
 const MapView = lazy(() => import('../map/MapView.tsx'));
+const noFarriers: ReadonlySet<number> = new Set();
 
 export interface DispatchScreenProps {
   initialDate: string;
@@ -93,11 +95,29 @@ function Screen({ initialDate, today, barns, homes, units, initialPlan }: Dispat
     },
     onError,
   });
+  // A drop shows at once: the moves are applied to the shown plan (the same list operations the server
+  // runs) while the server re-times; its answer replaces the preview, and a refusal (409 or any error)
+  // puts the previous plan back before the latest is loaded.
+  const [retiming, setRetiming] = useState<ReadonlySet<number>>(noFarriers);
   const move = useMutation({
-    mutationFn: (moves: Move[]) => api<PlanView>(`/api/plans/${view!.id}`, { method: 'PATCH', body: { version: view!.version, moves } }),
-    onMutate: () => setNotice(null),
+    mutationFn: ({ plan: p, moves }: { plan: PlanView; moves: Move[] }) => api<PlanView>(`/api/plans/${p.id}`, { method: 'PATCH', body: { version: p.version, moves } }),
+    onMutate: async ({ plan: p, moves }) => {
+      setNotice(null);
+      await qc.cancelQueries({ queryKey: planKey });
+      const preview = previewMoves(p, moves);
+      if (preview) {
+        qc.setQueryData(planKey, preview.plan);
+        setRetiming(new Set(preview.touched));
+      }
+      return { before: p, shown: preview?.plan ?? p };
+    },
     onSuccess: setPlan,
-    onError,
+    onError: (e, _vars, context) => {
+      // Put the previous plan back unless something newer has replaced the preview meanwhile.
+      if (context && qc.getQueryData(planKey) === context.shown) qc.setQueryData(planKey, context.before);
+      onError(e);
+    },
+    onSettled: () => setRetiming(noFarriers),
   });
   const publish = useMutation({
     mutationFn: () => api<PlanView>(`/api/plans/${view!.id}/publish`, { method: 'POST', body: { version: view!.version } }),
@@ -123,25 +143,39 @@ function Screen({ initialDate, today, barns, homes, units, initialPlan }: Dispat
   // `mutate` keeps its identity across renders (the mutation object does not), so the board's memoised
   // lanes and cards are not re-rendered just because a request started or ended.
   const moveMutate = move.mutate;
-  const onMoves = useCallback((moves: Move[]) => moveMutate(moves), [moveMutate]);
+  const viewRef = useRef(view);
+  viewRef.current = view;
+  const onMoves = useCallback((moves: Move[]) => {
+    if (viewRef.current) moveMutate({ plan: viewRef.current, moves });
+  }, [moveMutate]);
   const busy = planDay.isPending || move.isPending || publish.isPending;
+  // The board dims as a whole only when it cannot show the edit itself (work taken off the plan).
+  const boardBusy = planDay.isPending || publish.isPending || (move.isPending && retiming.size === 0);
 
+  // The map's sources change only when what they show changes, not with every re-timed plan: a new
+  // array would send the barns or homes to maplibre's worker again and redraw the map after each drop.
+  const laneKey = view ? view.routes.map((r) => r.farrierId).join(',') : null;
   const workingHomes = useMemo(() => {
-    const ids = view ? new Set(view.routes.map((r) => r.farrierId)) : null;
+    const ids = laneKey === null ? null : new Set(laneKey.split(',').filter(Boolean).map(Number));
     return homes.filter((h) => (ids ? ids.has(Number(h.id)) : h.workingDays.includes(isoWeekday(date))));
-  }, [homes, view, date]);
+  }, [homes, laneKey, date]);
   const mapRoutes = useMemo(() => (lines.data?.lines ?? []).map((l) => ({ farrierId: l.farrierId, colour: l.colour, coordinates: l.coordinates })), [lines.data]);
+  // Barns on the day's routes show as booked once published; the rest keep their due state.
+  const bookedKey = view?.state === 'published' ? [...new Set(view.routes.flatMap((r) => r.stops.map((s) => s.barnId)))].sort((a, b) => a - b).join(',') : '';
   const mapBarns = useMemo(() => {
-    // Barns on the day's routes show as booked once published; the rest keep their due state.
-    if (!view) return barns;
-    const onPlan = new Set(view.routes.flatMap((r) => r.stops.map((s) => s.barnId)));
-    return barns.map((b) => (onPlan.has(Number(b.id)) && view.state === 'published' ? { ...b, dueState: 'booked' as const } : b));
-  }, [barns, view]);
+    if (!bookedKey) return barns;
+    const booked = new Set(bookedKey.split(',').map(Number));
+    return barns.map((b) => (booked.has(Number(b.id)) ? { ...b, dueState: 'booked' as const } : b));
+  }, [barns, bookedKey]);
 
   const onBarnClick = useCallback((b: MapBarn) => {
     const id = Number(b.id);
     setSelectedBarnId(id);
-    document.querySelector(`[data-barn="${id}"]`)?.scrollIntoView({ block: 'nearest', inline: 'nearest', behavior: 'smooth' });
+    // A lane mounts only the cards near its view and scrolls the selected barn's stop in on the next
+    // render; the page follows to that card once it is there (two frames: render, then the lane's scroll).
+    requestAnimationFrame(() => requestAnimationFrame(() => {
+      document.querySelector(`[data-barn="${id}"]`)?.scrollIntoView({ block: 'nearest', inline: 'nearest', behavior: 'smooth' });
+    }));
   }, []);
 
   const p = progress.data;
@@ -211,7 +245,7 @@ function Screen({ initialDate, today, barns, homes, units, initialPlan }: Dispat
       </div>
 
       {view ? (
-        <Board routes={view.routes} unplanned={view.unplanned} units={units} selectedBarnId={selectedBarnId} onSelectBarn={setSelectedBarnId} onMoves={onMoves} busy={busy} />
+        <Board routes={view.routes} unplanned={view.unplanned} units={units} selectedBarnId={selectedBarnId} onSelectBarn={setSelectedBarnId} onMoves={onMoves} busy={boardBusy} retiming={retiming} />
       ) : plan.isLoading ? (
         <p className="text-sm text-slateblue-600">Loading the plan…</p>
       ) : (

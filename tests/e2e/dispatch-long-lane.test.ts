@@ -1,0 +1,79 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Knex } from 'knex';
+import { APP_URL, hydrated, launch, screenshot, signIn } from './browser.ts';
+import { appDatabase } from '../integration/helpers/db.ts';
+import { call, sessionCookie } from '../integration/helpers/api.ts';
+import { clearPlan, dispatchTestDate } from '../integration/dispatch/dates.ts';
+
+const date = dispatchTestDate('America/New_York', 4);
+let knex: Knex;
+let browser: Awaited<ReturnType<typeof launch>>;
+
+beforeAll(async () => {
+  knex = appDatabase();
+  await clearPlan(knex, 1, date);
+  browser = await launch({ viewport: { width: 1500, height: 1000 } });
+});
+afterAll(async () => {
+  await browser?.close();
+  await knex.destroy();
+});
+
+type Stop = { id: number; barnId: number; jobs: { id: number }[] };
+type Route = { farrierId: number; stops: Stop[] };
+
+describe('a long lane on the dispatch board', () => {
+  it('keeps a stop far down a long lane out of the page until the lane is scrolled to it, and then it can be dragged with the keyboard to another farrier', async () => {
+    // A plan whose whole day is in one lane: plan the day, then move every other farrier's work to the
+    // first lane (the board's leftmost, in view without scrolling the board sideways).
+    const cookie = await sessionCookie('dispatcher@demo.test');
+    const planned = await call('POST', '/api/plans', { cookie, body: { date, budgetSeconds: 1 } });
+    expect(planned.status).toBe(201);
+    const routes = planned.body.routes as Route[];
+    const long = routes[0]!;
+    const moves = routes.filter((r) => r.farrierId !== long.farrierId).flatMap((r) => r.stops.flatMap((s) => s.jobs.map((j) => ({ jobId: j.id, toFarrierId: long.farrierId }))));
+    const edited = await call('PATCH', `/api/plans/${planned.body.id}`, { cookie, body: { version: planned.body.version, moves } });
+    expect(edited.status).toBe(200);
+    const lane = (edited.body.routes as Route[]).find((r) => r.farrierId === long.farrierId)!;
+    // More stops than a lane mounts at once: about five cards fill its 70vh of a 1000-px window, plus three below.
+    expect(lane.stops.length).toBeGreaterThanOrEqual(12);
+    const last = lane.stops[lane.stops.length - 1]!;
+
+    const { page } = browser;
+    await signIn(page, 'dispatcher@demo.test');
+    await page.goto(`${APP_URL}/dispatch?date=${date}`);
+    await hydrated(page);
+    const laneSel = `[data-lane="${long.farrierId}"]`;
+    await page.waitForSelector(`${laneSel} [data-stop]`);
+    // Only the cards in and near the lane's view are mounted: the last stop is not in the page yet.
+    const mounted = await page.locator(`${laneSel} [data-stop]`).count();
+    expect(mounted).toBeLessThan(lane.stops.length);
+    expect(await page.locator(`[data-stop="${last.id}"]`).count()).toBe(0);
+
+    // Scrolling the lane to its end brings the last stop's card in.
+    await page.$eval(`${laneSel} [data-lane-scroll]`, (el) => { el.scrollTop = el.scrollHeight; });
+    const card = page.locator(`[data-stop="${last.id}"]`);
+    await card.waitFor();
+    await screenshot(page, 'dispatch-e2e-long-lane');
+
+    // Lift it with Space, move it one lane sideways (to a farrier's lane, not the unplanned one), drop with Space.
+    const farrierLanes = (await page.$$eval('[data-lane]', (els) => els.map((e) => e.getAttribute('data-lane')!))).filter((l) => l !== 'unplanned');
+    const at = farrierLanes.indexOf(String(long.farrierId));
+    const [key, target] = at > 0 ? ['ArrowLeft', farrierLanes[at - 1]!] : ['ArrowRight', farrierLanes[at + 1]!];
+    await card.focus();
+    const patch = page.waitForResponse((r) => r.request().method() === 'PATCH' && r.url().includes('/api/plans/'));
+    await page.keyboard.press('Space');
+    await page.waitForTimeout(300);
+    await page.keyboard.press(key);
+    await page.waitForTimeout(300);
+    await page.keyboard.press('Space');
+    const answer = await patch;
+    expect(answer.status()).toBe(200);
+    const body = await answer.json();
+    const holder = (body.routes as Route[]).find((r) => r.stops.some((s) => s.jobs.some((j) => j.id === last.jobs[0]!.id)))!;
+    expect(String(holder.farrierId)).toBe(target);
+    // The board shows it in the receiving lane once the re-timed plan is in.
+    await page.waitForSelector(`[data-testid=plan-state]:has-text("v${body.version}")`);
+    await page.waitForSelector(`[data-lane="${target}"] [data-barn="${last.barnId}"]`);
+  }, 180_000);
+});
