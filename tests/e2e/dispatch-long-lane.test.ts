@@ -35,7 +35,7 @@ describe('a long lane on the dispatch board', () => {
     const edited = await call('PATCH', `/api/plans/${planned.body.id}`, { cookie, body: { version: planned.body.version, moves } });
     expect(edited.status).toBe(200);
     const lane = (edited.body.routes as Route[]).find((r) => r.farrierId === long.farrierId)!;
-    // More stops than a lane mounts at once: about five cards fill its 70vh of a 1000-px window, plus three below.
+    // More stops than a lane mounts at once: about five cards fill its 70vh of a 1000-px window, plus one below.
     expect(lane.stops.length).toBeGreaterThanOrEqual(12);
     const last = lane.stops[lane.stops.length - 1]!;
 

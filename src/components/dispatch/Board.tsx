@@ -27,6 +27,8 @@ export interface BoardProps {
   busy: boolean;
   /** Farriers whose lanes show a drop ahead of the server's re-timed answer. */
   retiming?: ReadonlySet<number>;
+  /** Told when a drag starts and when it ends (dropped or cancelled). */
+  onDragging?: (dragging: boolean) => void;
 }
 
 type DragItem = { kind: 'stop'; stop: PlanStopView; farrierId: number } | { kind: 'job'; job: PlanJobView; barnName: string; farrierId: number | null };
@@ -80,7 +82,7 @@ function useLaneCollisions(): CollisionDetection {
   }, []);
 }
 
-export default function Board({ routes, unplanned, units, selectedBarnId, onSelectBarn, onMoves, busy, retiming }: BoardProps) {
+export default function Board({ routes, unplanned, units, selectedBarnId, onSelectBarn, onMoves, busy, retiming, onDragging }: BoardProps) {
   const collisionDetection = useLaneCollisions();
   const sensors = useSensors(
     useSensor(PointerSensor, { activationConstraint: { distance: 6 } }),
@@ -110,9 +112,17 @@ export default function Board({ routes, unplanned, units, selectedBarnId, onSele
     return index.jobs.get(id) ?? null;
   };
 
-  const onDragStart = (e: DragStartEvent) => setActive(itemOf(String(e.active.id)));
+  const onDragStart = (e: DragStartEvent) => {
+    setActive(itemOf(String(e.active.id)));
+    onDragging?.(true);
+  };
+  const onDragCancel = () => {
+    setActive(null);
+    onDragging?.(false);
+  };
   const onDragEnd = (e: DragEndEvent) => {
     setActive(null);
+    onDragging?.(false);
     const item = itemOf(String(e.active.id));
     const overId = e.over ? String(e.over.id) : null;
     if (!item || !overId || overId === String(e.active.id)) return;
@@ -133,7 +143,7 @@ export default function Board({ routes, unplanned, units, selectedBarnId, onSele
   };
 
   return (
-    <DndContext sensors={sensors} collisionDetection={collisionDetection} onDragStart={onDragStart} onDragEnd={onDragEnd} onDragCancel={() => setActive(null)}>
+    <DndContext sensors={sensors} collisionDetection={collisionDetection} onDragStart={onDragStart} onDragEnd={onDragEnd} onDragCancel={onDragCancel}>
       <div className={`flex gap-3 overflow-x-auto pb-3 ${busy ? 'opacity-70' : ''}`} data-testid="board">
         {routes.map((r) => (
           <Lane
@@ -214,7 +224,7 @@ const Lane = memo(function Lane({ route, units, selectedBarnId, activeStopId, re
     gap: CARD_GAP_PX,
     paddingStart: LANE_PADDING_PX,
     paddingEnd: LANE_PADDING_PX,
-    overscan: 3,
+    overscan: 1,
     rangeExtractor,
   });
 

@@ -3,7 +3,7 @@
  * board. Reads and writes through the plans API with react-query; a 409 (someone else edited) reloads
  * the plan and says so, rather than overwriting their work.
  */
-import { lazy, Suspense, useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { lazy, memo, Suspense, useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import QueryRoot from '../QueryRoot.tsx';
 import { api, ApiError } from '../../lib/client/api.ts';
@@ -12,7 +12,9 @@ import type { MapBarn, MapHome } from '../map/map-layers.ts';
 import { previewMoves } from '../../lib/dispatch/preview.ts';
 import Board from './Board.tsx';
 
-const MapView = lazy(() => import('../map/MapView.tsx'));
+// Memoised: the screen re-renders as drags start and end and as requests come and go; the map should
+// only when what it shows changes.
+const MapView = memo(lazy(() => import('../map/MapView.tsx')));
 const noFarriers: ReadonlySet<number> = new Set();
 
 export interface DispatchScreenProps {
@@ -160,6 +162,12 @@ function Screen({ initialDate, today, barns, homes, units, initialPlan }: Dispat
     return homes.filter((h) => (ids ? ids.has(Number(h.id)) : h.workingDays.includes(isoWeekday(date))));
   }, [homes, laneKey, date]);
   const mapRoutes = useMemo(() => (lines.data?.lines ?? []).map((l) => ({ farrierId: l.farrierId, colour: l.colour, coordinates: l.coordinates })), [lines.data]);
+  // New route lines wait while a card is being dragged: handing a day's lines to maplibre serialises
+  // every point for its worker on the main thread (100–200 ms for 300 stops), which would stall the drag
+  // when the lines of the previous edit arrive in the middle of the next one.
+  const [dragging, setDragging] = useState(false);
+  const shownRoutes = useRef(mapRoutes);
+  if (!dragging) shownRoutes.current = mapRoutes;
   // Barns on the day's routes show as booked once published; the rest keep their due state.
   const bookedKey = view?.state === 'published' ? [...new Set(view.routes.flatMap((r) => r.stops.map((s) => s.barnId)))].sort((a, b) => a - b).join(',') : '';
   const mapBarns = useMemo(() => {
@@ -239,13 +247,13 @@ function Screen({ initialDate, today, barns, homes, units, initialPlan }: Dispat
       <div className="h-[360px]">
         {mounted && (
           <Suspense fallback={<div className="h-full rounded-lg border border-slateblue-200 bg-slateblue-50" />}>
-            <MapView barns={mapBarns} homes={workingHomes} routes={mapRoutes} selectedBarnId={selectedBarnId} onBarnClick={onBarnClick} fitTo={mapRoutes.length ? 'routes' : 'all'} units={units} height="360px" />
+            <MapView barns={mapBarns} homes={workingHomes} routes={shownRoutes.current} selectedBarnId={selectedBarnId} onBarnClick={onBarnClick} fitTo={shownRoutes.current.length ? 'routes' : 'all'} units={units} height="360px" />
           </Suspense>
         )}
       </div>
 
       {view ? (
-        <Board routes={view.routes} unplanned={view.unplanned} units={units} selectedBarnId={selectedBarnId} onSelectBarn={setSelectedBarnId} onMoves={onMoves} busy={boardBusy} retiming={retiming} />
+        <Board routes={view.routes} unplanned={view.unplanned} units={units} selectedBarnId={selectedBarnId} onSelectBarn={setSelectedBarnId} onMoves={onMoves} busy={boardBusy} retiming={retiming} onDragging={setDragging} />
       ) : plan.isLoading ? (
         <p className="text-sm text-slateblue-600">Loading the plan…</p>
       ) : (
