@@ -7,14 +7,23 @@
  *     stop each, dealt round-robin over the practice's farriers (six lanes of 50).
  *  2. Opens /dispatch on that day as the dispatcher and collects requestAnimationFrame deltas in the
  *     page while a card is dragged with the mouse, and while one is dragged with the keyboard.
- *  3. Times each drop to the re-timed render: from the pointer-up (or the dropping Space key) in the
- *     page to the first frame after the board shows the plan's next version.
- * Prints p50/p95 frame ms per way of dragging and drop-to-render ms, plus the load average.
+ *  3. Times each drop: from the pointer-up (or the dropping Space key) in the page to the first frame
+ *     that shows the moved work in its new place (a lane marked as re-timing, before the server's
+ *     answer), and to the first frame after the board shows the plan's next version (re-timed).
+ * Prints p50/p95 frame ms per way of dragging (all frames of a drag's recording, and split into those
+ * before the drop and those from the drop until the re-timed plan has shown), drop-to-render ms, plus
+ * the load average.
+ * With BOARD_TRACE=1 the first mouse and the first keyboard drag are also recorded with chromium's
+ * tracing and JS sampling profiler, and the bench prints where the page's main thread spent that time
+ * (script, style, layout, paint …) and the scripts and functions with the most self time; the traces
+ * are kept in .data/board-trace-mouse.json and -keyboard.json for chromium's performance panel.
  * Run: APP_URL=… DATABASE_URL=mysql://…/roundsmith_bench_dispatch node --import tsx bench/board-bench.ts
  */
+import { writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import type { Knex } from 'knex';
+import type { CDPSession, Page } from 'playwright-core';
 import { createKnex } from '../src/lib/db/connection.ts';
 import { seed } from '../seeds/01_demo_practice.ts';
 import { addDays, isoWeekday, localSecToDate } from '../src/lib/dispatch/time.ts';
@@ -26,6 +35,7 @@ if (!APP || !DB_URL) throw new Error('Set APP_URL and DATABASE_URL (of the app u
 if (!new URL(DB_URL).pathname.slice(1).startsWith('roundsmith_bench')) throw new Error('DATABASE_URL must name a roundsmith_bench… database: this bench rewrites plans and jobs');
 const STOPS = Number(process.env.BOARD_STOPS ?? 300);
 const ROUNDS = 3;
+const TRACE = process.env.BOARD_TRACE === '1';
 
 const knex = createKnex(DB_URL, { min: 0, max: 2 });
 const load = () => os.loadavg().map((x) => x.toFixed(2)).join(' ');
@@ -81,6 +91,68 @@ async function writeBigPlan(db: Knex, date: string): Promise<number> {
   return Number(planId);
 }
 
+type TraceEvent = { name: string; ph: string; dur?: number; pid: number; tid: number; args?: { name?: string } };
+type ProfileNode = { id: number; callFrame: { functionName: string; url: string; lineNumber: number; columnNumber: number } };
+
+/** Starts chromium tracing (timeline categories) and the JS sampling profiler on the page. */
+async function startTrace(page: Page): Promise<CDPSession> {
+  const cdp = await page.context().newCDPSession(page);
+  await cdp.send('Profiler.enable');
+  await cdp.send('Profiler.setSamplingInterval', { interval: 200 });
+  await cdp.send('Profiler.start');
+  await cdp.send('Tracing.start', { categories: 'devtools.timeline,disabled-by-default-devtools.timeline', transferMode: 'ReturnAsStream' });
+  return cdp;
+}
+
+/**
+ * Ends the trace and prints the renderer main thread's time by kind of work, and the profiler's top
+ * self times by script file and by function (names are minified in a built app; file:line still tells).
+ */
+async function endTrace(cdp: CDPSession, label: string): Promise<void> {
+  const done = new Promise<string>((resolve) => cdp.once('Tracing.tracingComplete', (e) => resolve(e.stream!)));
+  await cdp.send('Tracing.end');
+  const stream = await done;
+  let text = '';
+  for (;;) {
+    const chunk = await cdp.send('IO.read', { handle: stream, size: 1 << 20 });
+    text += chunk.base64Encoded ? Buffer.from(chunk.data, 'base64').toString() : chunk.data;
+    if (chunk.eof) break;
+  }
+  await cdp.send('IO.close', { handle: stream });
+  writeFileSync(path.resolve('.data', `board-trace-${label}.json`), text);
+  const { profile } = await cdp.send('Profiler.stop');
+  await cdp.detach();
+
+  const parsed = JSON.parse(text) as { traceEvents?: TraceEvent[] } | TraceEvent[];
+  const events = Array.isArray(parsed) ? parsed : parsed.traceEvents ?? [];
+  const mains = new Set(events.filter((e) => e.name === 'thread_name' && e.args?.name === 'CrRendererMain').map((e) => `${e.pid}:${e.tid}`));
+  const sums = new Map<string, number>();
+  for (const e of events) {
+    if (e.ph !== 'X' || !mains.has(`${e.pid}:${e.tid}`)) continue;
+    sums.set(e.name, (sums.get(e.name) ?? 0) + (e.dur ?? 0) / 1000);
+  }
+  const kinds = ['RunTask', 'EventDispatch', 'FunctionCall', 'FireAnimationFrame', 'TimerFire', 'RunMicrotasks', 'UpdateLayoutTree', 'Layout', 'PrePaint', 'Paint', 'Layerize', 'HitTest', 'ScrollLayer', 'IntersectionObserverController::computeIntersections', 'MinorGC', 'MajorGC'];
+  console.log(`  [trace ${label}] main thread ms (events nest: script includes the layouts it forces): ${kinds.filter((k) => sums.has(k)).map((k) => `${k} ${sums.get(k)!.toFixed(0)}`).join(', ')}`);
+
+  const nodes = new Map<number, ProfileNode>((profile.nodes as ProfileNode[]).map((n) => [n.id, n]));
+  const self = new Map<number, number>();
+  const samples = profile.samples ?? [];
+  const deltas = profile.timeDeltas ?? [];
+  for (let i = 0; i < samples.length; i++) self.set(samples[i]!, (self.get(samples[i]!) ?? 0) + (deltas[i + 1] ?? 0) / 1000);
+  const byFile = new Map<string, number>();
+  const byFn = new Map<string, number>();
+  for (const [id, ms] of self) {
+    const f = nodes.get(id)!.callFrame;
+    const file = f.url ? f.url.slice(f.url.lastIndexOf('/') + 1) : `(${f.functionName || 'native'})`;
+    byFile.set(file, (byFile.get(file) ?? 0) + ms);
+    const fn = `${f.functionName || '(anonymous)'} ${file}:${f.lineNumber + 1}:${f.columnNumber + 1}`;
+    byFn.set(fn, (byFn.get(fn) ?? 0) + ms);
+  }
+  const top = (m: Map<string, number>, n: number) => [...m].sort((a, b) => b[1] - a[1]).slice(0, n).map(([k, v]) => `${k} ${v.toFixed(0)}`).join('; ');
+  console.log(`  [trace ${label}] JS self ms by file: ${top(byFile, 8)}`);
+  console.log(`  [trace ${label}] JS self ms by function: ${top(byFn, 12)}`);
+}
+
 // 1. The database and the plan.
 await knex.migrate.latest({ directory: path.resolve('migrations'), loadExtensions: ['.ts'] });
 if (!(await knex('practices').where({ id: 1 }).first('id'))) await seed(knex);
@@ -97,7 +169,9 @@ try {
   await page.goto(`${APP}/dispatch?date=${date}`);
   await hydrated(page);
   await page.waitForSelector('[data-lane] [data-stop]');
+  // Lanes mount only the cards in and near view: count the stops from the lanes' figures.
   const cards = await page.locator('[data-lane] [data-stop]').count();
+  const stopsShown = (await page.$$eval('[data-testid=lane-figures]', (els) => els.map((e) => e.textContent ?? ''))).reduce((n, t) => n + Number(/(\d+) stops/.exec(t)?.[1] ?? 0), 0);
   const firstPaintMs = Date.now() - t0;
   await page.waitForSelector('[data-map-ready="true"]', { timeout: 60_000 });
   await page.locator('[data-testid=board]').scrollIntoViewIfNeeded();
@@ -108,11 +182,18 @@ try {
   await page.waitForTimeout(2000);
 
   await page.evaluate(() => {
-    const w = window as unknown as { __frames: number[]; __rec: boolean; __drops: number[]; __dropAt: number | null; __armKey: boolean };
-    w.__frames = []; w.__drops = []; w.__dropAt = null; w.__rec = false; w.__armKey = false;
+    const w = window as unknown as { __frames: number[]; __rec: boolean; __drops: number[]; __dropAt: number | null; __shown: number[]; __shownAt: number | null; __lastDrop: number; __armKey: boolean };
+    w.__frames = []; w.__drops = []; w.__dropAt = null; w.__shown = []; w.__shownAt = null; w.__lastDrop = Infinity; w.__rec = false; w.__armKey = false;
     // Drop time: the event's own time stamp of the pointer-up, or of the Space key that drops a lifted card.
-    window.addEventListener('pointerup', (e) => { if (w.__rec) w.__dropAt = e.timeStamp; }, true);
-    window.addEventListener('keydown', (e) => { if (w.__armKey && e.code === 'Space') { w.__armKey = false; w.__dropAt = e.timeStamp; } }, true);
+    window.addEventListener('pointerup', (e) => { if (w.__rec) w.__dropAt = w.__shownAt = w.__lastDrop = e.timeStamp; }, true);
+    window.addEventListener('keydown', (e) => { if (w.__armKey && e.code === 'Space') { w.__armKey = false; w.__dropAt = w.__shownAt = w.__lastDrop = e.timeStamp; } }, true);
+    // The moved work shown where it was dropped, before the server's answer: a lane marked as re-timing.
+    new MutationObserver(() => {
+      if (w.__shownAt === null || !document.querySelector('[data-retiming]')) return;
+      const at = w.__shownAt;
+      w.__shownAt = null;
+      requestAnimationFrame(() => w.__shown.push(performance.now() - at));
+    }).observe(document.querySelector('[data-testid=board]')!, { subtree: true, attributes: true, attributeFilter: ['data-retiming'] });
     const state = document.querySelector('[data-testid=plan-state]')!;
     new MutationObserver(() => {
       if (w.__dropAt === null) return;
@@ -127,16 +208,29 @@ try {
     w.__rec = ${on};
     if (${on}) {
       w.__frames = [];
+      w.__frameAt = [];
+      w.__lastDrop = Infinity;
       let last = performance.now();
-      requestAnimationFrame(function tick(t) { w.__frames.push(t - last); last = t; if (w.__rec) requestAnimationFrame(tick); });
+      requestAnimationFrame(function tick(t) { w.__frames.push(t - last); w.__frameAt.push(t); last = t; if (w.__rec) requestAnimationFrame(tick); });
     }
   })()`);
   const version = () => page.locator('[data-testid=plan-state]').innerText();
   const nextVersion = async (before: string) => page.waitForFunction((b) => document.querySelector('[data-testid=plan-state]')?.textContent !== b, before, { timeout: 30_000 });
   const lanes = (await page.$$eval('[data-lane]', (els) => els.map((e) => e.getAttribute('data-lane')!))).filter((l) => l !== 'unplanned');
 
-  const mouseFrames: number[] = [];
-  const keyFrames: number[] = [];
+  // Every frame of a drag's recording, and split at the drop: while dragging, and from the drop until the re-timed plan has shown.
+  const mouseFrames: number[] = [], mouseDrag: number[] = [], mouseAfter: number[] = [];
+  const keyFrames: number[] = [], keyDrag: number[] = [], keyAfter: number[] = [];
+  const frames = () => page.evaluate(() => {
+    const w = window as unknown as { __frames: number[]; __frameAt: number[]; __lastDrop: number };
+    return { ms: w.__frames.slice(1), at: w.__frameAt.slice(1), drop: w.__lastDrop };
+  });
+  const collect = (f: { ms: number[]; at: number[]; drop: number }, all: number[], drag: number[], after: number[]) => {
+    f.ms.forEach((ms, i) => {
+      all.push(ms);
+      (f.at[i]! <= f.drop ? drag : after).push(ms);
+    });
+  };
   const patchMs: number[] = [];
   page.on('response', async (r) => {
     if (r.request().method() === 'PATCH' && r.url().includes('/api/plans/')) patchMs.push(Number((await r.json()).retimeMs));
@@ -149,6 +243,7 @@ try {
     const to = (await page.locator(`[data-lane="${b}"] header`).boundingBox())!;
     const before = await version();
     await page.mouse.move(from.x + from.width / 2, from.y + 20);
+    const mouseTrace = TRACE && round === 0 ? await startTrace(page) : null;
     await record(true);
     await page.mouse.down();
     await page.mouse.move(from.x + from.width / 2 + 20, from.y + 40, { steps: 5 });
@@ -157,13 +252,15 @@ try {
     await nextVersion(before);
     await page.waitForTimeout(200);
     await record(false);
-    mouseFrames.push(...(await page.evaluate(() => (window as unknown as { __frames: number[] }).__frames.slice(1))));
+    if (mouseTrace) await endTrace(mouseTrace, 'mouse');
+    collect(await frames(), mouseFrames, mouseDrag, mouseAfter);
 
     // Keyboard: the first stop of another lane, Space, ArrowRight, ArrowDown ×3, Space.
     const c = lanes[(round + 2) % lanes.length]!;
     const kCard = page.locator(`[data-lane="${c}"] [data-stop]`).first();
     await kCard.focus();
     const kBefore = await version();
+    const keyTrace = TRACE && round === 0 ? await startTrace(page) : null;
     await record(true);
     await page.keyboard.press('Space');
     await page.waitForTimeout(250);
@@ -178,14 +275,19 @@ try {
     await nextVersion(kBefore);
     await page.waitForTimeout(200);
     await record(false);
-    keyFrames.push(...(await page.evaluate(() => (window as unknown as { __frames: number[] }).__frames.slice(1))));
+    if (keyTrace) await endTrace(keyTrace, 'keyboard');
+    collect(await frames(), keyFrames, keyDrag, keyAfter);
   }
   await page.waitForTimeout(300);
   const drops = await page.evaluate(() => (window as unknown as { __drops: number[] }).__drops);
+  const shown = await page.evaluate(() => (window as unknown as { __shown: number[] }).__shown);
   const f = (xs: number[]) => `p50 ${pct(xs, 50).toFixed(1)} ms, p95 ${pct(xs, 95).toFixed(1)} ms, max ${Math.max(...xs).toFixed(1)} ms over ${xs.length} frames`;
-  console.log(`Board with ${cards} stop cards in ${lanes.length} lanes (plan ${planId}, ${date}); first load to cards ${firstPaintMs} ms; load average ${load()}`);
+  console.log(`Board with ${stopsShown} stops in ${lanes.length} lanes, ${cards} cards mounted at first (plan ${planId}, ${date}); first load to cards ${firstPaintMs} ms; load average ${load()}`);
   console.log(`  mouse drag frames: ${f(mouseFrames)}`);
+  console.log(`    while dragging: ${f(mouseDrag)}; from the drop: ${f(mouseAfter)}`);
   console.log(`  keyboard drag frames: ${f(keyFrames)}`);
+  console.log(`    while dragging: ${f(keyDrag)}; from the drop: ${f(keyAfter)}`);
+  console.log(`  drop to moved work shown, before the server answers (${shown.length} drops): ${shown.length ? `p50 ${pct(shown, 50).toFixed(0)} ms, max ${Math.max(...shown).toFixed(0)} ms` : 'none shown'}`);
   console.log(`  drop to re-timed render (${drops.length} drops): p50 ${pct(drops, 50).toFixed(0)} ms, max ${Math.max(...drops).toFixed(0)} ms; server re-time p50 ${pct(patchMs, 50).toFixed(1)} ms, max ${Math.max(...patchMs).toFixed(1)} ms`);
   await screenshot(page, 'board-bench-300-after');
 } finally {
