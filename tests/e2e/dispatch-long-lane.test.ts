@@ -50,8 +50,13 @@ describe('a long lane on the dispatch board', () => {
     expect(mounted).toBeLessThan(lane.stops.length);
     expect(await page.locator(`[data-stop="${last.id}"]`).count()).toBe(0);
 
-    // Scrolling the lane to its end brings the last stop's card in.
-    await page.$eval(`${laneSel} [data-lane-scroll]`, (el) => { el.scrollTop = el.scrollHeight; });
+    // Scrolling the lane to its end brings the last stop's card in. Cards are measured as they mount, so
+    // the lane's height settles as it scrolls: keep scrolling to the end, as a person would.
+    await page.waitForFunction(({ sel, id }) => {
+      const el = document.querySelector(`${sel} [data-lane-scroll]`)!;
+      el.scrollTop = el.scrollHeight;
+      return document.querySelector(`[data-stop="${id}"]`) !== null;
+    }, { sel: laneSel, id: last.id }, { polling: 200, timeout: 10_000 });
     const card = page.locator(`[data-stop="${last.id}"]`);
     await card.waitFor();
     await screenshot(page, 'dispatch-e2e-long-lane');

@@ -174,7 +174,7 @@ export default function Board({ routes, unplanned, units, selectedBarnId, onSele
 }
 
 /** A card's height before it is measured (a one-horse stop without warnings), and the space between cards. */
-const CARD_ESTIMATE_PX = 124;
+const CARD_ESTIMATE_PX = 136;
 const CARD_GAP_PX = 8;
 const LANE_PADDING_PX = 8;
 
