@@ -19,18 +19,25 @@ function csv(path: string): Record<string, string>[] {
  * The invented farrier day for one seed (instance and search seed alike): a short run against a
  * reference run that uses its whole budget (no early stop on a stall). Returns the printed lines
  * and the short run's gap above the reference, so the suite and the CLI report the same figures.
+ * With `iterations` both runs are bounded by iteration counts instead of seconds: the engine's
+ * schedule counts iterations, so such a pair gives the same figures on a busy machine as on an idle
+ * one (the short run is then the exact start of the reference run).
  */
-export function runFarrierDay(seed: number, shortSeconds: number, referenceSeconds: number) {
+export function runFarrierDay(seed: number, shortSeconds: number, referenceSeconds: number, iterations?: { short: number; reference: number }) {
   const day = farrierDay({ seed, farriers: 6, jobs: 60, barns: 40, sideM: 40000 });
-  const describe = (label: string, seconds: number, noStall = false) => {
-    const r = solve(day, { seed, stop: { maxSeconds: seconds, ...(noStall ? { noImprovementIterations: Infinity } : {}) } });
+  const describe = (label: string, limit: { maxSeconds: number } | { maxIterations: number }, noStall = false) => {
+    const r = solve(day, { seed, stop: { ...limit, ...(noStall ? { noImprovementIterations: Infinity } : {}) } });
     const c = checkSolution(day, r, { complete: true, compareTimes: true });
     const planned = r.routes.reduce((a, x) => a + x.stops.reduce((b, s) => b + s.jobIds.length, 0), 0);
     const line = `${pad(label, 22)} stop ${r.statistics.stopReason}, cost ${(r.cost / 100).toFixed(2)} (checker ${(c.costs.totalCents / 100).toFixed(2)}), first plan ${(r.statistics.firstFeasibleSeconds * 1000).toFixed(0)} ms, ${planned} jobs planned, ${r.unplanned.length} unplanned, ${r.statistics.iterations} iterations, ${r.statistics.seconds.toFixed(1)} s, ${c.feasible ? 'checked feasible' : 'FAIL ' + c.violations[0]?.message}`;
     return { r, line, feasible: c.feasible };
   };
-  const short = describe(`${shortSeconds}-second budget`, shortSeconds);
-  const ref = describe(`${referenceSeconds}-second budget`, referenceSeconds, true);
+  const short = iterations
+    ? describe(`${iterations.short}-iteration budget`, { maxIterations: iterations.short })
+    : describe(`${shortSeconds}-second budget`, { maxSeconds: shortSeconds });
+  const ref = iterations
+    ? describe(`${iterations.reference}-iteration budget`, { maxIterations: iterations.reference }, true)
+    : describe(`${referenceSeconds}-second budget`, { maxSeconds: referenceSeconds }, true);
   return {
     lines: [short.line, ref.line], short: short.r, reference: ref.r, feasible: short.feasible && ref.feasible,
     gapPct: ((short.r.cost - ref.r.cost) / ref.r.cost) * 100,
