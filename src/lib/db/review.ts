@@ -117,7 +117,7 @@ export interface FarrierDay {
     planVersion: number; publishedAt: Date | null;
   } | null;
   stops: DayStop[];
-  dayLog: { startedAt: Date; endedAt: Date | null; distanceM: number | null } | null;
+  dayLog: { id: number; startedAt: Date; endedAt: Date | null; distanceM: number | null; startOdometer: number | null; endOdometer: number | null } | null;
   visits: DayVisit[];
 }
 
@@ -146,7 +146,7 @@ export async function loadReviewDay(db: Knex, practiceId: number, date: IsoDate,
       .whereIn('sj.stop_id', stopIds).andWhere('j.practice_id', practiceId).orderBy(['sj.stop_id', 'sj.position', 'wt.id'])
       .select('sj.stop_id', 'j.id as job_id', 'h.name as horse_name', 'wt.name as work_name', 'wt.price_cents')
     : [];
-  const dayLogs = await db('day_logs').where({ practice_id: practiceId, work_date: date }).select('farrier_id', 'started_at', 'ended_at', 'distance_m');
+  const dayLogs = await db('day_logs').where({ practice_id: practiceId, work_date: date }).select('id', 'farrier_id', 'started_at', 'ended_at', 'distance_m', 'start_odometer', 'end_odometer');
   const visitRows = await db('visit_logs as v').join('barns as b', 'b.id', 'v.barn_id').where({ 'v.practice_id': practiceId, 'v.visit_date': date })
     .orderBy(['v.farrier_id', 'v.arrived_at', 'v.id'])
     .select('v.id', 'v.farrier_id', 'v.stop_id', 'v.barn_id', 'b.name as barn_name', 'v.state', 'v.arrived_at', 'v.departed_at', 'v.distance_m', 'v.skip_reason');
@@ -184,7 +184,12 @@ export async function loadReviewDay(db: Knex, practiceId: number, date: IsoDate,
         stopId: s.id, position: s.position, barnId: s.barn_id, barnName: s.barn_name, arrivalAt: s.arrival_at, startAt: s.start_at, departureAt: s.departure_at,
         legDriveSec: s.leg_drive_seconds, legDistanceM: s.leg_distance_m, jobs: jobsByStop.get(s.id) ?? [],
       })) : [],
-      dayLog: log ? { startedAt: log.started_at, endedAt: log.ended_at, distanceM: log.distance_m } : null,
+      dayLog: log
+        ? {
+          id: Number(log.id), startedAt: log.started_at, endedAt: log.ended_at, distanceM: log.distance_m,
+          startOdometer: log.start_odometer == null ? null : Number(log.start_odometer), endOdometer: log.end_odometer == null ? null : Number(log.end_odometer),
+        }
+        : null,
       visits: visits.map((v) => ({
         visitId: v.id, stopId: v.stop_id, barnId: v.barn_id, barnName: v.barn_name, state: v.state, arrivedAt: v.arrived_at, departedAt: v.departed_at,
         distanceM: v.distance_m, skipReason: v.skip_reason,
