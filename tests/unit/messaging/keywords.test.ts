@@ -5,7 +5,7 @@ import { countSegments } from '../../../src/lib/messaging/segments.ts';
 
 // Outside values: CTIA Messaging Principles and Best Practices (2023) opt-out words STOP, STOPALL,
 // UNSUBSCRIBE, CANCEL, END, QUIT and HELP; FCC 47 CFR 64.1200(a)(10) adds revoke and opt out;
-// START/UNSTOP to opt back in is common practice ([M] in ../shared/reference-values.md).
+// START/UNSTOP to opt back in is common practice (from memory, [M]).
 describe('reply keywords', () => {
   it('reads every CTIA and FCC opt-out word as stop, in any case and with trailing punctuation', () => {
     for (const w of ['STOP', 'STOPALL', 'UNSUBSCRIBE', 'CANCEL', 'END', 'QUIT', 'REVOKE', 'OPT OUT', 'stop', ' Stop! ', 'quit.']) expect(keywordOf(w), w).toBe('stop');

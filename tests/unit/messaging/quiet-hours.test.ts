@@ -4,9 +4,9 @@ import { earliestSendAt, isQuietMinute, DEFAULT_QUIET_HOURS } from '../../../src
 const NY = 'America/New_York';
 const send = (iso: string) => earliestSendAt(new Date(iso), NY, DEFAULT_QUIET_HOURS).toISOString();
 
-// Outside values: the 2026 America/New_York changes from the IANA tz rules (../shared/reference-values.md):
+// Outside values: the 2026 America/New_York changes from the IANA tz database rules:
 // 8 March 02:00 EST → 03:00 EDT (07:00Z), 1 November 02:00 EDT → 01:00 EST (06:00Z). Quiet hours
-// 21:00–08:00 recipient time follow the TCPA calling-hours rule of thumb ([M] there).
+// 21:00–08:00 recipient time follow the TCPA calling-hours rule of thumb (from memory, [M]).
 describe('quiet hours on the owner clock across the 2026 New York clock changes', () => {
   it('lets a text go at once between 08:00 and 21:00', () => {
     expect(send('2026-06-10T14:00:00Z')).toBe('2026-06-10T14:00:00.000Z'); // 10:00 EDT

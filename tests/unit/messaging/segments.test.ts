@@ -2,8 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { countSegments, gsmSeptets } from '../../../src/lib/messaging/segments.ts';
 
 // Outside values: 3GPP TS 23.038 (GSM 7-bit default alphabet and extension table) and TS 23.040
-// (a concatenated segment carries a 6-octet header, leaving 153 septets or 67 UCS-2 units), as listed
-// in ../shared/reference-values.md; boundary counts are computed from those capacities ([C]).
+// (a concatenated segment carries a 6-octet header, leaving 153 septets or 67 UCS-2 units); boundary
+// counts are computed from those capacities ([C]).
 describe('SMS segment counting (3GPP TS 23.038 / 23.040)', () => {
   it('counts a plain GSM-7 text as one segment up to 160 septets, then 153 per segment', () => {
     expect(countSegments('A'.repeat(160))).toMatchObject({ encoding: 'gsm7', units: 160, segments: 1 });
@@ -39,7 +39,7 @@ describe('SMS segment counting (3GPP TS 23.038 / 23.040)', () => {
   });
 
   it('counts UCS-2 texts as 70 units in one segment, then 67 per segment', () => {
-    // [C] from ../shared/reference-values.md: 70 × â → 1; 71 → 2; 134 = 2 × 67 → 2; 135 → 3
+    // [C] from the UCS-2 capacities above: 70 × â → 1; 71 → 2; 134 = 2 × 67 → 2; 135 → 3
     expect(countSegments('â'.repeat(70))).toMatchObject({ encoding: 'ucs2', units: 70, segments: 1 });
     expect(countSegments('â'.repeat(71))).toMatchObject({ segments: 2, perSegment: 67 });
     expect(countSegments('â'.repeat(134)).segments).toBe(2);
