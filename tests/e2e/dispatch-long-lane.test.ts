@@ -23,7 +23,7 @@ type Stop = { id: number; barnId: number; jobs: { id: number }[] };
 type Route = { farrierId: number; stops: Stop[] };
 
 describe('a long lane on the dispatch board', () => {
-  it('keeps a stop far down a long lane out of the page until the lane is scrolled to it, and then it can be dragged with the keyboard to another farrier', async () => {
+  it('keeps the cards of a long lane that are below the window\'s edge, and a stop far down the lane, out of the page until they are scrolled to, and then the stop can be dragged with the keyboard to another farrier', async () => {
     // A plan whose whole day is in one lane: plan the day, then move every other farrier's work to the
     // first lane (the board's leftmost, in view without scrolling the board sideways).
     const cookie = await sessionCookie('dispatcher@demo.test');
@@ -50,10 +50,31 @@ describe('a long lane on the dispatch board', () => {
     expect(mounted).toBeLessThan(lane.stops.length);
     expect(await page.locator(`[data-stop="${last.id}"]`).count()).toBe(0);
 
-    // Scrolling the lane to its end brings the last stop's card in. Cards are measured as they mount, so
-    // the lane's height settles as it scrolls: keep scrolling to the end, as a person would.
+    // With the page at its top the lane's box reaches below the window (the board sits below the map):
+    // its cards there are not mounted either, beyond one card past the window's edge (136 px, the
+    // lane's card estimate). Scrolling the page down to the lane mounts them.
+    const laneGeometry = () => page.evaluate((sel) => ({
+      window: window.innerHeight,
+      boxBottom: document.querySelector(`${sel} [data-lane-scroll]`)!.getBoundingClientRect().bottom,
+      cardTops: [...document.querySelectorAll(`${sel} [data-stop]`)].map((c) => c.getBoundingClientRect().top),
+    }), laneSel);
+    const frames = () => page.evaluate(() => new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(() => requestAnimationFrame(r)))));
+    await page.evaluate(() => window.scrollTo(0, 0));
+    await frames();
+    const atTop = await laneGeometry();
+    expect(atTop.boxBottom).toBeGreaterThan(atTop.window + 2 * 136);
+    expect(Math.max(...atTop.cardTops)).toBeLessThanOrEqual(atTop.window + 136 + 1);
+    await page.$eval(`${laneSel} [data-lane-scroll]`, (el) => el.scrollIntoView({ block: 'end' }));
+    await page.waitForFunction(({ sel, n }) => document.querySelectorAll(`${sel} [data-stop]`).length > n, { sel: laneSel, n: atTop.cardTops.length }, { timeout: 10_000 });
+    const inView = await laneGeometry();
+    expect(inView.boxBottom).toBeLessThanOrEqual(inView.window + 1);
+
+    // Scrolling the lane to its end brings the last stop's card in, once the lane's end is inside the
+    // window too (the board sits below the map). Cards are measured as they mount, so the lane's height
+    // settles as it scrolls: keep scrolling to the end, as a person would.
     await page.waitForFunction(({ sel, id }) => {
       const el = document.querySelector(`${sel} [data-lane-scroll]`)!;
+      el.scrollIntoView({ block: 'end' });
       el.scrollTop = el.scrollHeight;
       return document.querySelector(`[data-stop="${id}"]`) !== null;
     }, { sel: laneSel, id: last.id }, { polling: 200, timeout: 10_000 });

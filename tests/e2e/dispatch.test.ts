@@ -77,12 +77,25 @@ describe('the dispatcher plans a day in the browser', () => {
     expect(String(holder.farrierId)).not.toBe(laneC);
     await screenshot(page, 'dispatch-e2e-moved');
 
-    // Publish, reload, same plan. Lanes mount only the cards near their view and a drop scrolls the
-    // receiving lane, so every lane is read from its top, with its figures, before and after.
+    // Publish, reload, same plan. Lanes mount only the cards in view (in the lane and in the window) and
+    // a drop scrolls the receiving lane, so every lane is read from its top with the window at the top of
+    // the page, with its figures, before and after.
     const shown = async () => {
+      await page.evaluate(() => window.scrollTo(0, 0));
       await page.$$eval('[data-lane-scroll]', (els) => els.forEach((e) => { e.scrollTop = 0; }));
-      await page.evaluate(() => new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r))));
-      return page.$$eval('[data-lane]', (els) => els.map((e) => [e.getAttribute('data-lane'), e.querySelector('[data-testid=lane-figures]')?.textContent ?? '', [...e.querySelectorAll('[data-barn]')].map((c) => c.getAttribute('data-barn'))]));
+      // Lanes follow the window's scrolling on the next frame and measure cards as they mount: read
+      // until two reads a few frames apart agree.
+      const read = async () => {
+        await page.evaluate(() => new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(() => requestAnimationFrame(r)))));
+        return page.$$eval('[data-lane]', (els) => els.map((e) => [e.getAttribute('data-lane'), e.querySelector('[data-testid=lane-figures]')?.textContent ?? '', [...e.querySelectorAll('[data-barn]')].map((c) => c.getAttribute('data-barn'))]));
+      };
+      let last = await read();
+      for (let i = 0; i < 20; i++) {
+        const next = await read();
+        if (JSON.stringify(next) === JSON.stringify(last)) return next;
+        last = next;
+      }
+      return last;
     };
     const before = await shown();
     await page.click('[data-testid=publish-button]');

@@ -3,14 +3,14 @@
  * with dnd-kit, by mouse or keyboard (focus a card, Space to lift, arrow keys to move, Space to drop).
  * A drop becomes moves for the plans API; the server re-times and answers, nothing moves on its own.
  */
-import { memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { memo, useCallback, useEffect, useMemo, useRef, useState, type ReactNode, type RefObject } from 'react';
 import {
   DndContext, DragOverlay, KeyboardSensor, PointerSensor, closestCenter, useDroppable, useSensor, useSensors,
   type Collision, type CollisionDetection, type DragEndEvent, type DragStartEvent,
 } from '@dnd-kit/core';
 import { SortableContext, sortableKeyboardCoordinates, useSortable, verticalListSortingStrategy } from '@dnd-kit/sortable';
 import { CSS } from '@dnd-kit/utilities';
-import { defaultRangeExtractor, useVirtualizer, type Range } from '@tanstack/react-virtual';
+import { defaultRangeExtractor, useVirtualizer, type Range, type VirtualItem } from '@tanstack/react-virtual';
 import type { Move, PlanJobView, PlanRouteView, PlanStopView, UnplannedView } from '../../schemas/plans.ts';
 
 const clock = (iso: string) => iso.slice(11, 16);
@@ -82,13 +82,14 @@ function useLaneCollisions(): CollisionDetection {
   }, []);
 }
 
-export default function Board({ routes, unplanned, units, selectedBarnId, onSelectBarn, onMoves, busy, retiming, onDragging }: BoardProps) {
+export default memo(function Board({ routes, unplanned, units, selectedBarnId, onSelectBarn, onMoves, busy, retiming, onDragging }: BoardProps) {
   const collisionDetection = useLaneCollisions();
   const sensors = useSensors(
     useSensor(PointerSensor, { activationConstraint: { distance: 6 } }),
     useSensor(KeyboardSensor, { coordinateGetter: sortableKeyboardCoordinates }),
   );
   const [active, setActive] = useState<DragItem | null>(null);
+  const [watch] = useState(() => new DragWatch());
   // The first job of the last drop: the lane that holds it once the plan answers scrolls to it.
   const [revealJobId, setRevealJobId] = useState<number | null>(null);
   useEffect(() => setRevealJobId(null), [routes]);
@@ -113,14 +114,17 @@ export default function Board({ routes, unplanned, units, selectedBarnId, onSele
   };
 
   const onDragStart = (e: DragStartEvent) => {
+    watch.set(true);
     setActive(itemOf(String(e.active.id)));
     onDragging?.(true);
   };
   const onDragCancel = () => {
+    watch.set(false);
     setActive(null);
     onDragging?.(false);
   };
   const onDragEnd = (e: DragEndEvent) => {
+    watch.set(false);
     setActive(null);
     onDragging?.(false);
     const item = itemOf(String(e.active.id));
@@ -154,6 +158,7 @@ export default function Board({ routes, unplanned, units, selectedBarnId, onSele
             activeStopId={active?.kind === 'stop' && active.farrierId === r.farrierId ? active.stop.id : null}
             revealJobId={revealJobId}
             retiming={retiming?.has(r.farrierId) ?? false}
+            watch={watch}
             onSelectBarn={onSelectBarn}
             onMoves={onMoves}
           />
@@ -171,7 +176,7 @@ export default function Board({ routes, unplanned, units, selectedBarnId, onSele
       </DragOverlay>
     </DndContext>
   );
-}
+});
 
 /** A card's height before it is measured (a one-horse stop without warnings), and the space between cards. */
 const CARD_ESTIMATE_PX = 136;
@@ -179,16 +184,110 @@ const CARD_GAP_PX = 8;
 const LANE_PADDING_PX = 8;
 
 /**
- * One farrier's lane. Its stops scroll inside the lane and only the cards in and near view are mounted
- * (@tanstack/react-virtual): every mounted sortable card re-renders whenever dnd-kit's drag state
- * changes (drag start, each new target, drop), so a long day's 50-stop lanes would otherwise make each
- * of those a few hundred milliseconds of rendering. The card being dragged stays mounted wherever the
- * lane is scrolled, because dnd-kit measures and moves it. Cards are placed with `top`, not a transform,
- * so dnd-kit's own transforms on them still apply and no card becomes a compositing layer of its own.
+ * The part of the browser window a lane's scroll box shows, in window pixels (`top` may be negative
+ * when the page is scrolled past the lane's top). Lanes follow the window's scrolling with this so that
+ * they mount only the cards a dispatcher can see.
+ */
+type WindowSpan = { top: number; bottom: number };
+
+/** The window span of an element, rounded to whole pixels so equal spans compare equal. */
+function windowSpanOf(el: HTMLElement): WindowSpan {
+  const r = el.getBoundingClientRect();
+  return { top: Math.round(r.top), bottom: Math.round(r.bottom) };
+}
+
+/**
+ * Whether a drag is under way, shared by the board with its lanes without re-rendering them: lanes
+ * keep the cards they have mounted while a card is dragged (mounting and unmounting cards mid-drag makes
+ * dnd-kit measure every card again) and catch up with the window once the drag has ended.
+ */
+class DragWatch {
+  dragging = false;
+  private readonly ended = new Set<() => void>();
+  /** Calls `fn` whenever a drag ends (dropped or cancelled); returns the unsubscribe function. */
+  onEnd(fn: () => void): () => void {
+    this.ended.add(fn);
+    return () => this.ended.delete(fn);
+  }
+  set(dragging: boolean) {
+    this.dragging = dragging;
+    if (!dragging) for (const fn of this.ended) fn();
+  }
+}
+
+/**
+ * The element's place in the browser window, kept up to date after mount, on window scroll and resize
+ * (once per frame), and when the element or the page changes size (content above the board, such as
+ * a notice, moves it); held while a card is dragged. Setting the same span again is ignored, so
+ * nothing re-renders.
+ */
+function useWindowSpan(ref: RefObject<HTMLElement | null>, watch: DragWatch): WindowSpan | null {
+  const [span, setSpan] = useState<WindowSpan | null>(null);
+  useEffect(() => {
+    let frame = 0;
+    const update = () => {
+      frame = 0;
+      const el = ref.current;
+      if (!el || watch.dragging) return;
+      const next = windowSpanOf(el);
+      setSpan((prev) => (prev && prev.top === next.top && prev.bottom === next.bottom ? prev : next));
+    };
+    const schedule = () => {
+      if (!frame) frame = requestAnimationFrame(update);
+    };
+    update();
+    window.addEventListener('scroll', schedule, { passive: true });
+    window.addEventListener('resize', schedule);
+    const sizes = new ResizeObserver(schedule);
+    sizes.observe(document.body);
+    if (ref.current) sizes.observe(ref.current);
+    const off = watch.onEnd(schedule);
+    return () => {
+      if (frame) cancelAnimationFrame(frame);
+      sizes.disconnect();
+      off();
+      window.removeEventListener('scroll', schedule);
+      window.removeEventListener('resize', schedule);
+    };
+  }, [ref, watch]);
+  return span;
+}
+
+/**
+ * Of the cards a lane's virtualiser would mount (its view plus one card either side), those inside the
+ * browser window too, with one card's estimate of margin either side, when the lane's box reaches
+ * outside the window; the card being dragged and the selected barn's card always (the screen scrolls
+ * the window to a barn picked on the map, so its card must be in the page). At least the first card of the lane's view stays,
+ * so a lane below the window's edge still has a card to drop onto and to reach by keyboard. Positions
+ * are the virtualiser's current ones (measured cards), read at render.
+ */
+function inWindow(items: VirtualItem[], span: WindowSpan | null, el: HTMLElement | null, keep: readonly number[]): VirtualItem[] {
+  if (!span || !el || (span.top >= 0 && span.bottom <= window.innerHeight)) return items;
+  const from = el.scrollTop + Math.max(0, -span.top) - CARD_ESTIMATE_PX;
+  const to = el.scrollTop + Math.min(span.bottom, window.innerHeight) - span.top + CARD_ESTIMATE_PX;
+  const seen = items.filter((v) => keep.includes(v.index) || (v.end >= from && v.start <= to));
+  return seen.length || items.length === 0 ? seen : [items[0]!];
+}
+
+/**
+ * One farrier's lane. Its stops scroll inside the lane and only the cards the dispatcher can see are
+ * mounted (@tanstack/react-virtual), plus one card either side: inside the lane's scroll box *and*
+ * inside the browser window, since the board usually sits below the map and a lane's lower half is
+ * often below the window's edge. Every mounted sortable card re-renders whenever dnd-kit's drag state
+ * changes (drag start, each new target, drop; several times while a card is lifted) and dnd-kit
+ * measures every mounted card when a drag starts, so each mounted card costs time in every drag.
+ * The card being dragged stays mounted wherever the lane is scrolled, because dnd-kit measures and
+ * moves it. Cards are placed with `top`, not a transform, so dnd-kit's own transforms on them still
+ * apply and no card becomes a compositing layer of its own.
+ *
+ * The lane itself reads no dnd-kit context: the drop target (`LaneFrame`) and the `SortableContext`
+ * re-render on each change of drag state, but they receive the header and the list as ready-made
+ * children, so React skips them and the virtualiser does not run again.
+ *
  * When a barn is selected (on the map or on another card) the lane scrolls its stop there into view,
  * and after a drop the lane that receives the moved work scrolls to where it landed.
  */
-const Lane = memo(function Lane({ route, units, selectedBarnId, activeStopId, revealJobId, retiming, onSelectBarn, onMoves }: {
+const Lane = memo(function Lane({ route, units, selectedBarnId, activeStopId, revealJobId, retiming, watch, onSelectBarn, onMoves }: {
   route: PlanRouteView;
   units: 'miles' | 'km';
   selectedBarnId: number | null;
@@ -198,15 +297,19 @@ const Lane = memo(function Lane({ route, units, selectedBarnId, activeStopId, re
   revealJobId: number | null;
   /** The lane shows a drop whose times, figures and warnings the server is still working out. */
   retiming: boolean;
+  /** The board's drag state (the lane keeps its mounted cards while a card is dragged). */
+  watch: DragWatch;
   onSelectBarn: (id: number | null) => void;
   onMoves: (m: Move[]) => void;
 }) {
-  const { setNodeRef, isOver } = useDroppable({ id: `lane:${route.farrierId}` });
   const empty = route.stops.length === 0;
   const laneWarnings = route.warnings;
   const items = useMemo(() => route.stops.map((s) => `stop:${s.id}`), [route.stops]);
   const scrollRef = useRef<HTMLDivElement>(null);
+  const span = useWindowSpan(scrollRef, watch);
   const activeIndex = activeStopId === null ? -1 : route.stops.findIndex((s) => s.id === activeStopId);
+  const selectedIndex = selectedBarnId === null ? -1 : route.stops.findIndex((s) => s.barnId === selectedBarnId);
+  const stops = route.stops;
   const rangeExtractor = useCallback((range: Range) => {
     const out = defaultRangeExtractor(range);
     if (activeIndex >= 0 && !out.includes(activeIndex)) {
@@ -215,7 +318,6 @@ const Lane = memo(function Lane({ route, units, selectedBarnId, activeStopId, re
     }
     return out;
   }, [activeIndex]);
-  const stops = route.stops;
   const virtualizer = useVirtualizer({
     count: stops.length,
     getScrollElement: () => scrollRef.current,
@@ -242,54 +344,73 @@ const Lane = memo(function Lane({ route, units, selectedBarnId, activeStopId, re
     if (i >= 0) virtualizer.scrollToIndex(i, { align: 'auto' });
   }, [revealJobId, stops, virtualizer]);
 
+  const header = (
+    <header className="rounded-t-xl border-b border-slateblue-100 px-3 py-2" style={{ borderTop: `4px solid ${route.colour}` }}>
+      <div className="flex items-center justify-between gap-2">
+        <h3 className="truncate text-sm font-semibold">{route.farrierName}</h3>
+        {retiming && <span className="shrink-0 text-[11px] text-slateblue-500" role="status">re-timing…</span>}
+        <span className="flex gap-1 text-[10px] font-semibold uppercase tracking-wide text-slateblue-500">
+          {route.qualified && <span title="Qualified for therapeutic work">Thera</span>}
+          {route.hasForge ? <span title="Truck has a forge">Forge</span> : <span className="text-ember-700" title="No forge on this truck">No forge</span>}
+          {route.apprentice && <span>Apprentice</span>}
+        </span>
+      </div>
+      {empty ? (
+        <p className="mt-1 text-xs text-slateblue-500">No stops: drop work here</p>
+      ) : (
+        <dl className={`mt-1 grid grid-cols-3 gap-x-2 gap-y-0.5 text-[11px] text-slateblue-600 ${retiming ? 'opacity-50' : ''}`} data-testid="lane-figures">
+          <div><dt className="sr-only">Day</dt><dd className="figure text-slateblue-900">{clock(route.start)}–{clock(route.end)}</dd></div>
+          <div><dt className="sr-only">Drive</dt><dd className="figure">{hm(route.driveMinutes)} drive</dd></div>
+          <div><dt className="sr-only">Distance</dt><dd className="figure">{route.distance.toFixed(1)} {unitWord(units)}</dd></div>
+          <div><dt className="sr-only">Horses</dt><dd className="figure">{route.horses} horses</dd></div>
+          <div><dt className="sr-only">Stops</dt><dd className="figure">{route.stops.length} stops</dd></div>
+          <div><dt className="sr-only">Overtime</dt><dd className={`figure ${route.overtimeMinutes > 0 ? 'font-semibold text-ember-700' : ''}`}>{route.overtimeMinutes > 0 ? `+${route.overtimeMinutes} min OT` : 'no OT'}</dd></div>
+        </dl>
+      )}
+      {laneWarnings.map((w, i) => (
+        <p key={i} className="mt-1 rounded bg-ember-50 px-2 py-1 text-xs font-medium text-ember-800" data-warning={w.code}>{w.message}</p>
+      ))}
+      {route.cautions.map((c) => (
+        <p key={c} className="mt-1 text-[11px] text-slateblue-500">⚠ {c}</p>
+      ))}
+    </header>
+  );
+  const list = (
+    <div ref={scrollRef} className="max-h-[70vh] min-h-24 flex-1 overflow-y-auto" data-lane-scroll>
+      <ol className="relative" style={{ height: virtualizer.getTotalSize() }} aria-label={`${route.stops.length} stops`}>
+        {inWindow(virtualizer.getVirtualItems(), span, scrollRef.current, [activeIndex, selectedIndex]).map((v) => {
+          const s = stops[v.index]!;
+          return (
+            <li key={v.key} ref={virtualizer.measureElement} data-index={v.index} className="absolute inset-x-2" style={{ top: v.start }}>
+              <StopCard stop={s} farrierId={route.farrierId} units={units} selected={selectedBarnId === s.barnId} onSelectBarn={onSelectBarn} onMoves={onMoves} />
+            </li>
+          );
+        })}
+      </ol>
+    </div>
+  );
   return (
-    <section ref={setNodeRef} className={`flex w-72 shrink-0 flex-col rounded-xl border bg-white shadow-sm ${isOver ? 'border-ember-400 ring-2 ring-ember-100' : 'border-slateblue-100'}`} data-lane={route.farrierId} data-retiming={retiming ? 'true' : undefined} aria-busy={retiming} aria-label={`Route of ${route.farrierName}`}>
-      <header className="rounded-t-xl border-b border-slateblue-100 px-3 py-2" style={{ borderTop: `4px solid ${route.colour}` }}>
-        <div className="flex items-center justify-between gap-2">
-          <h3 className="truncate text-sm font-semibold">{route.farrierName}</h3>
-          {retiming && <span className="shrink-0 text-[11px] text-slateblue-500" role="status">re-timing…</span>}
-          <span className="flex gap-1 text-[10px] font-semibold uppercase tracking-wide text-slateblue-500">
-            {route.qualified && <span title="Qualified for therapeutic work">Thera</span>}
-            {route.hasForge ? <span title="Truck has a forge">Forge</span> : <span className="text-ember-700" title="No forge on this truck">No forge</span>}
-            {route.apprentice && <span>Apprentice</span>}
-          </span>
-        </div>
-        {empty ? (
-          <p className="mt-1 text-xs text-slateblue-500">No stops: drop work here</p>
-        ) : (
-          <dl className={`mt-1 grid grid-cols-3 gap-x-2 gap-y-0.5 text-[11px] text-slateblue-600 ${retiming ? 'opacity-50' : ''}`} data-testid="lane-figures">
-            <div><dt className="sr-only">Day</dt><dd className="figure text-slateblue-900">{clock(route.start)}–{clock(route.end)}</dd></div>
-            <div><dt className="sr-only">Drive</dt><dd className="figure">{hm(route.driveMinutes)} drive</dd></div>
-            <div><dt className="sr-only">Distance</dt><dd className="figure">{route.distance.toFixed(1)} {unitWord(units)}</dd></div>
-            <div><dt className="sr-only">Horses</dt><dd className="figure">{route.horses} horses</dd></div>
-            <div><dt className="sr-only">Stops</dt><dd className="figure">{route.stops.length} stops</dd></div>
-            <div><dt className="sr-only">Overtime</dt><dd className={`figure ${route.overtimeMinutes > 0 ? 'font-semibold text-ember-700' : ''}`}>{route.overtimeMinutes > 0 ? `+${route.overtimeMinutes} min OT` : 'no OT'}</dd></div>
-          </dl>
-        )}
-        {laneWarnings.map((w, i) => (
-          <p key={i} className="mt-1 rounded bg-ember-50 px-2 py-1 text-xs font-medium text-ember-800" data-warning={w.code}>{w.message}</p>
-        ))}
-        {route.cautions.map((c) => (
-          <p key={c} className="mt-1 text-[11px] text-slateblue-500">⚠ {c}</p>
-        ))}
-      </header>
+    <LaneFrame farrierId={route.farrierId} farrierName={route.farrierName} retiming={retiming} header={header}>
       <SortableContext id={`lane:${route.farrierId}`} items={items} strategy={verticalListSortingStrategy}>
-        <div ref={scrollRef} className="max-h-[70vh] min-h-24 flex-1 overflow-y-auto" data-lane-scroll>
-          <ol className="relative" style={{ height: virtualizer.getTotalSize() }} aria-label={`${route.stops.length} stops`}>
-            {virtualizer.getVirtualItems().map((v) => {
-              const s = stops[v.index]!;
-              return (
-                <li key={v.key} ref={virtualizer.measureElement} data-index={v.index} className="absolute inset-x-2" style={{ top: v.start }}>
-                  <StopCard stop={s} farrierId={route.farrierId} units={units} selected={selectedBarnId === s.barnId} onSelectBarn={onSelectBarn} onMoves={onMoves} />
-                </li>
-              );
-            })}
-          </ol>
-        </div>
+        {list}
       </SortableContext>
-    </section>
+    </LaneFrame>
   );
 });
+
+/**
+ * A lane's drop target: the only part of a lane that follows dnd-kit's drag state (to ring the lane a
+ * card is over). Its header and list arrive as elements made by the lane, so its re-renders stop here.
+ */
+function LaneFrame({ farrierId, farrierName, retiming, header, children }: { farrierId: number; farrierName: string; retiming: boolean; header: ReactNode; children: ReactNode }) {
+  const { setNodeRef, isOver } = useDroppable({ id: `lane:${farrierId}` });
+  return (
+    <section ref={setNodeRef} className={`flex w-72 shrink-0 flex-col rounded-xl border bg-white shadow-sm ${isOver ? 'border-ember-400 ring-2 ring-ember-100' : 'border-slateblue-100'}`} data-lane={farrierId} data-retiming={retiming ? 'true' : undefined} aria-busy={retiming} aria-label={`Route of ${farrierName}`}>
+      {header}
+      {children}
+    </section>
+  );
+}
 
 /**
  * A stop's card: a thin sortable shell (it re-renders whenever dnd-kit's drag state changes, which is
