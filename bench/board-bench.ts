@@ -11,7 +11,8 @@
  *     that shows the moved work in its new place (a lane marked as re-timing, before the server's
  *     answer), and to the first frame after the board shows the plan's next version (re-timed).
  * Prints p50/p95 frame ms per way of dragging (all frames of a drag's recording, and split into those
- * before the drop and those from the drop until the re-timed plan has shown), drop-to-render ms, plus
+ * before the drop and those from the drop until the re-timed plan has shown), the longest frame after
+ * each keyboard key press by kind (lift, to another lane, within the lane, drop), drop-to-render ms, plus
  * the load average.
  * With BOARD_TRACE=1 the first mouse and the first keyboard drag are also recorded with chromium's
  * tracing and JS sampling profiler, and the bench prints where the page's main thread spent that time
@@ -187,6 +188,14 @@ try {
     // Drop time: the event's own time stamp of the pointer-up, or of the Space key that drops a lifted card.
     window.addEventListener('pointerup', (e) => { if (w.__rec) w.__dropAt = w.__shownAt = w.__lastDrop = e.timeStamp; }, true);
     window.addEventListener('keydown', (e) => { if (w.__armKey && e.code === 'Space') { w.__armKey = false; w.__dropAt = w.__shownAt = w.__lastDrop = e.timeStamp; } }, true);
+    // Each key press of a keyboard drag, by kind (lift, to another lane, within the lane, drop), for the longest frame after it.
+    const k = window as unknown as { __keyKind: string | null; __keyLog: { kind: string; at: number }[] };
+    k.__keyLog = [];
+    window.addEventListener('keydown', (e) => {
+      if (!k.__keyKind) return;
+      k.__keyLog.push({ kind: k.__keyKind, at: e.timeStamp });
+      k.__keyKind = null;
+    }, true);
     // The moved work shown where it was dropped, before the server's answer: a lane marked as re-timing.
     new MutationObserver(() => {
       if (w.__shownAt === null || !document.querySelector('[data-retiming]')) return;
@@ -221,6 +230,7 @@ try {
   // Every frame of a drag's recording, and split at the drop: while dragging, and from the drop until the re-timed plan has shown.
   const mouseFrames: number[] = [], mouseDrag: number[] = [], mouseAfter: number[] = [];
   const keyFrames: number[] = [], keyDrag: number[] = [], keyAfter: number[] = [];
+  const perKey: Record<string, number[]> = {};
   const frames = () => page.evaluate(() => {
     const w = window as unknown as { __frames: number[]; __frameAt: number[]; __lastDrop: number };
     return { ms: w.__frames.slice(1), at: w.__frameAt.slice(1), drop: w.__lastDrop };
@@ -262,21 +272,33 @@ try {
     const kBefore = await version();
     const keyTrace = TRACE && round === 0 ? await startTrace(page) : null;
     await record(true);
+    const kind = (name: string) => page.evaluate((n) => { (window as unknown as { __keyKind: string }).__keyKind = n; }, name);
+    await kind('lift');
     await page.keyboard.press('Space');
     await page.waitForTimeout(250);
+    await kind('to another lane');
     await page.keyboard.press('ArrowRight');
     await page.waitForTimeout(250);
     for (let i = 0; i < 3; i++) {
+      await kind('within the lane');
       await page.keyboard.press('ArrowDown');
       await page.waitForTimeout(150);
     }
     await page.evaluate(() => { (window as unknown as { __armKey: boolean }).__armKey = true; });
+    await kind('drop');
     await page.keyboard.press('Space');
     await nextVersion(kBefore);
     await page.waitForTimeout(200);
     await record(false);
     if (keyTrace) await endTrace(keyTrace, 'keyboard');
-    collect(await frames(), keyFrames, keyDrag, keyAfter);
+    const kf = await frames();
+    collect(kf, keyFrames, keyDrag, keyAfter);
+    const log = await page.evaluate(() => (window as unknown as { __keyLog: { kind: string; at: number }[] }).__keyLog.splice(0));
+    log.forEach((key, i) => {
+      const until = Math.min(log[i + 1]?.at ?? Infinity, key.at + 250);
+      const after = kf.ms.filter((_, j) => kf.at[j]! > key.at && kf.at[j]! <= until);
+      (perKey[key.kind] ??= []).push(after.length ? Math.max(...after) : NaN);
+    });
   }
   await page.waitForTimeout(300);
   const drops = await page.evaluate(() => (window as unknown as { __drops: number[] }).__drops);
@@ -287,6 +309,7 @@ try {
   console.log(`    while dragging: ${f(mouseDrag)}; from the drop: ${f(mouseAfter)}`);
   console.log(`  keyboard drag frames: ${f(keyFrames)}`);
   console.log(`    while dragging: ${f(keyDrag)}; from the drop: ${f(keyAfter)}`);
+  console.log(`    longest frame after each key press (until the next key, at most 250 ms): ${Object.entries(perKey).map(([k, xs]) => `${k} ${xs.map((x) => x.toFixed(0)).join('/')} ms`).join('; ')}`);
   console.log(`  drop to moved work shown, before the server answers (${shown.length} drops): ${shown.length ? `p50 ${pct(shown, 50).toFixed(0)} ms, max ${Math.max(...shown).toFixed(0)} ms` : 'none shown'}`);
   console.log(`  drop to re-timed render (${drops.length} drops): p50 ${pct(drops, 50).toFixed(0)} ms, max ${Math.max(...drops).toFixed(0)} ms; server re-time p50 ${pct(patchMs, 50).toFixed(1)} ms, max ${Math.max(...patchMs).toFixed(1)} ms`);
   await screenshot(page, 'board-bench-300-after');
