@@ -162,12 +162,20 @@ function Screen({ initialDate, today, barns, homes, units, initialPlan }: Dispat
     return homes.filter((h) => (ids ? ids.has(Number(h.id)) : h.workingDays.includes(isoWeekday(date))));
   }, [homes, laneKey, date]);
   const mapRoutes = useMemo(() => (lines.data?.lines ?? []).map((l) => ({ farrierId: l.farrierId, colour: l.colour, coordinates: l.coordinates })), [lines.data]);
-  // New route lines wait while a card is being dragged: handing a day's lines to maplibre serialises
-  // every point for its worker on the main thread (100–200 ms for 300 stops), which would stall the drag
-  // when the lines of the previous edit arrive in the middle of the next one.
+  // New route lines wait while a card is being dragged and then for an idle moment of the browser:
+  // handing changed lines to maplibre serialises their points for its worker on the main thread, which
+  // would stall a drag (or a key press) when the lines of the previous edit arrive in the middle of it.
   const [dragging, setDragging] = useState(false);
-  const shownRoutes = useRef(mapRoutes);
-  if (!dragging) shownRoutes.current = mapRoutes;
+  const [shownRoutes, setShownRoutes] = useState(mapRoutes);
+  useEffect(() => {
+    if (dragging || shownRoutes === mapRoutes) return;
+    if (typeof window.requestIdleCallback === 'function') {
+      const handle = window.requestIdleCallback(() => setShownRoutes(mapRoutes), { timeout: 1000 });
+      return () => window.cancelIdleCallback(handle);
+    }
+    const handle = window.setTimeout(() => setShownRoutes(mapRoutes), 50);
+    return () => window.clearTimeout(handle);
+  }, [dragging, mapRoutes, shownRoutes]);
   // Barns on the day's routes show as booked once published; the rest keep their due state.
   const bookedKey = view?.state === 'published' ? [...new Set(view.routes.flatMap((r) => r.stops.map((s) => s.barnId)))].sort((a, b) => a - b).join(',') : '';
   const mapBarns = useMemo(() => {
@@ -247,7 +255,7 @@ function Screen({ initialDate, today, barns, homes, units, initialPlan }: Dispat
       <div className="h-[360px]">
         {mounted && (
           <Suspense fallback={<div className="h-full rounded-lg border border-slateblue-200 bg-slateblue-50" />}>
-            <MapView barns={mapBarns} homes={workingHomes} routes={shownRoutes.current} selectedBarnId={selectedBarnId} onBarnClick={onBarnClick} fitTo={shownRoutes.current.length ? 'routes' : 'all'} units={units} height="360px" />
+            <MapView barns={mapBarns} homes={workingHomes} routes={shownRoutes} selectedBarnId={selectedBarnId} onBarnClick={onBarnClick} fitTo={shownRoutes.length ? 'routes' : 'all'} units={units} height="360px" />
           </Suspense>
         )}
       </div>

@@ -16,8 +16,9 @@ import {
   homesLayer,
   INTERACTIVE_LAYER_IDS,
   LAYER_IDS,
+  routeLayers,
   routesCasingLayer,
-  routesCollection,
+  routeSourcesData,
   routesLayer,
   type DueState,
   type MapBarn,
@@ -39,6 +40,8 @@ export interface MapViewProps {
   height?: string;
 }
 
+const EMPTY_LINES: GeoJSON.FeatureCollection<GeoJSON.LineString> = { type: 'FeatureCollection', features: [] };
+
 type Picked = { kind: 'barn'; barn: MapBarn } | { kind: 'home'; home: MapHome };
 
 export default function MapView({ barns, homes, routes = [], selectedBarnId, onBarnClick, fitTo = 'all', units = 'miles', height = '70vh' }: MapViewProps) {
@@ -51,7 +54,13 @@ export default function MapView({ barns, homes, routes = [], selectedBarnId, onB
 
   const barnData = useMemo(() => barnsCollection(barns, selectedBarnId), [barns, selectedBarnId]);
   const homeData = useMemo(() => homesCollection(homes), [homes]);
-  const routeData = useMemo(() => routesCollection(routes), [routes]);
+  // One source per farrier's route: a re-timed plan sends maplibre's worker only the routes whose points
+  // changed (react-map-gl calls setData only when a source's data changes), not every route of the day.
+  const routeCache = useRef<ReturnType<typeof routeSourcesData>>(new globalThis.Map());
+  const routeSources = useMemo(() => {
+    routeCache.current = routeSourcesData(routes, routeCache.current);
+    return [...routeCache.current.entries()];
+  }, [routes]);
 
   const bounds = useMemo(() => {
     if (Array.isArray(fitTo)) return fitTo;
@@ -123,10 +132,20 @@ export default function MapView({ barns, homes, routes = [], selectedBarnId, onB
       >
         <NavigationControl position="top-right" showCompass={false} />
         <ScaleControl position="bottom-left" unit={units === 'miles' ? 'imperial' : 'metric'} />
-        <Source id="rs-routes" type="geojson" data={routeData}>
+        {/* The shared route layers stay empty: they anchor the order (all casings, then all lines, under homes and barns). */}
+        <Source id="rs-routes" type="geojson" data={EMPTY_LINES}>
           <Layer {...routesCasingLayer} />
           <Layer {...routesLayer} />
         </Source>
+        {routeSources.map(([key, { data }]) => {
+          const layers = routeLayers(key);
+          return (
+            <Source key={key} id={layers.casing.source} type="geojson" data={data}>
+              <Layer {...layers.casing} />
+              <Layer {...layers.line} />
+            </Source>
+          );
+        })}
         <Source id="rs-homes" type="geojson" data={homeData}>
           <Layer {...homesLayer} />
         </Source>

@@ -137,6 +137,54 @@ export function routesCollection(routes: readonly MapRoute[]): GeoJSON.FeatureCo
   };
 }
 
+/** Source and layer ids of one farrier's route line (the map island gives each route its own source). */
+export function routeIds(farrierId: MapRoute['farrierId']) {
+  const key = String(farrierId);
+  return { source: `rs-route-${key}`, casing: `rs-route-casing-${key}`, line: `rs-route-line-${key}` };
+}
+
+/**
+ * One route's casing and line layers on its own source, drawn with the same paint as the shared route
+ * layers. `beforeId` keeps every casing under every line: the casing goes below the (empty) shared casing
+ * layer and the line below the (empty) shared line layer, which both stay in place as anchors.
+ */
+export function routeLayers(farrierId: MapRoute['farrierId']): { casing: LineLayerSpecification & { beforeId: string }; line: LineLayerSpecification & { beforeId: string } } {
+  const ids = routeIds(farrierId);
+  return {
+    casing: { ...routesCasingLayer, id: ids.casing, source: ids.source, beforeId: LAYER_IDS.routesCasing },
+    line: { ...routesLayer, id: ids.line, source: ids.source, beforeId: LAYER_IDS.routes },
+  };
+}
+
+/** Whether two routes' lines have the same points (compared point by point). */
+export function sameCoordinates(a: readonly [number, number][], b: readonly [number, number][]): boolean {
+  if (a === b) return true;
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) {
+    if (a[i]![0] !== b[i]![0] || a[i]![1] !== b[i]![1]) return false;
+  }
+  return true;
+}
+
+/**
+ * The per-route GeoJSON for the map island, reusing the previous object of every route whose colour and
+ * points did not change, so that only changed routes are sent to maplibre's worker again.
+ */
+export function routeSourcesData(
+  routes: readonly MapRoute[],
+  previous: ReadonlyMap<string, { route: MapRoute; data: GeoJSON.FeatureCollection<GeoJSON.LineString> }>,
+): Map<string, { route: MapRoute; data: GeoJSON.FeatureCollection<GeoJSON.LineString> }> {
+  const next = new Map<string, { route: MapRoute; data: GeoJSON.FeatureCollection<GeoJSON.LineString> }>();
+  for (const r of routes) {
+    if (r.coordinates.length < 2) continue;
+    const key = String(r.farrierId);
+    const old = previous.get(key);
+    if (old && old.route.colour === r.colour && sameCoordinates(old.route.coordinates, r.coordinates)) next.set(key, old);
+    else next.set(key, { route: r, data: routesCollection([r]) });
+  }
+  return next;
+}
+
 /** [west, south, east, north] around the given points, or null when there are none. */
 export function boundsOf(points: Iterable<[number, number]>): [number, number, number, number] | null {
   let w = Infinity;
