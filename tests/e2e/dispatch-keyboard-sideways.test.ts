@@ -1,24 +1,11 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Knex } from 'knex';
-import { APP_URL, hydrated, launch, screenshot, signIn } from './browser.ts';
-import { appDatabase } from '../integration/helpers/db.ts';
+import { describe, expect, it } from 'vitest';
+import { APP_URL, hydrated, screenshot, signIn } from './browser.ts';
 import { call, sessionCookie } from '../integration/helpers/api.ts';
-import { clearPlan, dispatchTestDate } from '../integration/dispatch/dates.ts';
+import { dispatchBrowserDay } from './dispatch-day.ts';
 
-const date = dispatchTestDate('America/New_York', 5);
-let knex: Knex;
-let browser: Awaited<ReturnType<typeof launch>>;
-
-beforeAll(async () => {
-  knex = appDatabase();
-  await clearPlan(knex, 1, date);
-  // Narrow enough that the board's lanes do not all fit: the board scrolls sideways.
-  browser = await launch({ viewport: { width: 1400, height: 900 } });
-});
-afterAll(async () => {
-  await browser?.close();
-  await knex.destroy();
-});
+// Narrow enough that the board's lanes do not all fit: the board scrolls sideways.
+const day = dispatchBrowserDay(5, { width: 1400, height: 900 });
+const { date } = day;
 
 type Route = { farrierId: number; stops: { id: number; jobs: { id: number }[] }[] };
 
@@ -28,7 +15,7 @@ describe('a keyboard drag on a board scrolled sideways', () => {
     const planned = await call('POST', '/api/plans', { cookie, body: { date, budgetSeconds: 1 } });
     expect(planned.status).toBe(201);
 
-    const { page } = browser;
+    const { page } = day.browser;
     await signIn(page, 'dispatcher@demo.test');
     await page.goto(`${APP_URL}/dispatch?date=${date}`);
     await hydrated(page);

@@ -1,23 +1,10 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Knex } from 'knex';
-import { APP_URL, hydrated, launch, screenshot, signIn } from './browser.ts';
-import { appDatabase } from '../integration/helpers/db.ts';
+import { describe, expect, it } from 'vitest';
+import { APP_URL, hydrated, screenshot, signIn } from './browser.ts';
 import { call, sessionCookie } from '../integration/helpers/api.ts';
-import { clearPlan, dispatchTestDate } from '../integration/dispatch/dates.ts';
+import { dispatchBrowserDay } from './dispatch-day.ts';
 
-const date = dispatchTestDate('America/New_York', 4);
-let knex: Knex;
-let browser: Awaited<ReturnType<typeof launch>>;
-
-beforeAll(async () => {
-  knex = appDatabase();
-  await clearPlan(knex, 1, date);
-  browser = await launch({ viewport: { width: 1500, height: 1000 } });
-});
-afterAll(async () => {
-  await browser?.close();
-  await knex.destroy();
-});
+const day = dispatchBrowserDay(4);
+const { date } = day;
 
 type Stop = { id: number; barnId: number; jobs: { id: number }[] };
 type Route = { farrierId: number; stops: Stop[] };
@@ -39,7 +26,7 @@ describe('a long lane on the dispatch board', () => {
     expect(lane.stops.length).toBeGreaterThanOrEqual(12);
     const last = lane.stops[lane.stops.length - 1]!;
 
-    const { page } = browser;
+    const { page } = day.browser;
     await signIn(page, 'dispatcher@demo.test');
     await page.goto(`${APP_URL}/dispatch?date=${date}`);
     await hydrated(page);

@@ -1,26 +1,13 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Knex } from 'knex';
-import { APP_URL, hydrated, launch, screenshot, signIn } from './browser.ts';
-import { appDatabase } from '../integration/helpers/db.ts';
-import { clearPlan, dispatchTestDate } from '../integration/dispatch/dates.ts';
+import { describe, expect, it } from 'vitest';
+import { APP_URL, hydrated, screenshot, signIn } from './browser.ts';
+import { dispatchBrowserDay } from './dispatch-day.ts';
 
-const date = dispatchTestDate('America/New_York', 2);
-let knex: Knex;
-let browser: Awaited<ReturnType<typeof launch>>;
-
-beforeAll(async () => {
-  knex = appDatabase();
-  await clearPlan(knex, 1, date);
-  browser = await launch({ viewport: { width: 1500, height: 1000 } });
-});
-afterAll(async () => {
-  await browser?.close();
-  await knex.destroy();
-});
+const day = dispatchBrowserDay(2);
+const { date } = day;
 
 describe('the dispatcher plans a day in the browser', () => {
   it('plans, sees routes and lanes, drags by mouse and by keyboard, publishes, and finds the same plan after a reload', async () => {
-    const { page } = browser;
+    const { page } = day.browser;
     await signIn(page, 'dispatcher@demo.test');
     await page.goto(`${APP_URL}/dispatch?date=${date}`);
     await hydrated(page);
