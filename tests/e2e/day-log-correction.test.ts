@@ -42,8 +42,8 @@ describe('the lead corrects a logged day on the review', () => {
     const actualDistance = page.locator('[data-testid=farrier-day] tr:has(th:text-is("Actual")) td').last();
     // 52,031 − 52,000 = 31 mi
     expect((await actualDistance.innerText()).trim()).toBe('31.0');
+    await hydrated(page); // the island hydrates once visible: a click before that reaches no React
     await page.click('[data-testid=correct-day]');
-    await hydrated(page);
     const form = page.locator('form[aria-label^="Correct the day"]');
     // the form starts from the logged figures, on the practice's clock: 17:30Z is 13:30 EDT
     expect(await form.locator('input[name=endedAt]').inputValue()).toBe('13:30');
@@ -69,7 +69,9 @@ describe('the lead corrects a logged day on the review', () => {
     expect(log.distance_source).toBe('odometer');
     const audit = await knex('audit_log').where({ entity: 'day_log', entity_id: log.id, action: 'day_log.corrected' }).first();
     expect(JSON.parse(typeof audit.detail === 'string' ? audit.detail : JSON.stringify(audit.detail)).reason).toBe('Odometer misread at home');
+    await hydrated(page);
     await page.click('[data-testid=correct-day]');
+    await form.waitFor();
     await screenshot(page, 'review-day-correction');
   });
 });
