@@ -5,7 +5,8 @@
  */
 import { useMutation } from '@tanstack/react-query';
 import { useId, useState, type FormEvent } from 'react';
-import { formatInTimeZone, fromZonedTime } from 'date-fns-tz';
+import { localClock } from '../../lib/review/time.ts';
+import { atLocal } from '../../lib/messaging/local-time.ts';
 import QueryRoot from '../QueryRoot.tsx';
 import FormField from '../FormField.tsx';
 import { api } from '../../lib/client/api.ts';
@@ -26,7 +27,7 @@ export interface DayLogCorrectionProps {
   farrierName: string;
 }
 
-const clock = (iso: string | null, tz: string) => (iso ? formatInTimeZone(new Date(iso), tz, 'HH:mm') : '');
+const clock = (iso: string | null, tz: string) => (iso ? localClock(new Date(iso), tz) : '');
 const reading = (n: number | null) => (n == null ? '' : String(n));
 
 function Form(p: DayLogCorrectionProps) {
@@ -47,10 +48,17 @@ function Form(p: DayLogCorrectionProps) {
 
   function submit(event: FormEvent) {
     event.preventDefault();
+    if (start === '') {
+      setFields({ startedAt: 'Give the time the farrier left home' });
+      return;
+    }
     const body: Record<string, unknown> = { reason };
-    const at = (hhmm: string) => fromZonedTime(`${p.date}T${hhmm}:00`, p.timeZone).toISOString();
+    const at = (hhmm: string) => {
+      const [h, m] = hhmm.split(':').map(Number);
+      return atLocal(p.date, h! * 60 + m!, p.timeZone).toISOString();
+    };
     const odo = (v: string) => (v.trim() === '' ? null : Number(v));
-    if (start !== clock(p.startedAt, p.timeZone) && start !== '') body.startedAt = at(start);
+    if (start !== clock(p.startedAt, p.timeZone)) body.startedAt = at(start);
     if (end !== clock(p.endedAt, p.timeZone)) body.endedAt = end === '' ? null : at(end);
     if (startOdo !== reading(p.startOdometer)) body.startOdometer = odo(startOdo);
     if (endOdo !== reading(p.endOdometer)) body.endOdometer = odo(endOdo);
