@@ -25,6 +25,10 @@ describe('the dispatcher plans a day in the browser', () => {
     const lanes = await page.$$eval('[data-lane]', (els) => els.map((e) => e.getAttribute('data-lane')));
     expect(lanes).toContain('unplanned');
     expect(lanes.length).toBeGreaterThanOrEqual(4);
+    // Lane figures and stop times are set in Roboto Mono.
+    const fonts = await page.$$eval('[data-testid=lane-figures] .figure, [data-lane] [data-stop] .figure', (els) => els.slice(0, 8).map((e) => getComputedStyle(e).fontFamily));
+    expect(fonts.length).toBeGreaterThan(0);
+    expect(fonts.every((f) => f.includes('Roboto Mono'))).toBe(true);
     await screenshot(page, 'dispatch-e2e-planned');
 
     // Mouse: drag the first stop of the first lane onto the second lane.

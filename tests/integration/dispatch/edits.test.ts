@@ -137,5 +137,18 @@ describe('hand edits of a plan', () => {
     expect(Number(stops[0]!.n)).toBe(0);
     // Publishing again with a stale version changes nothing.
     expect((await call('POST', `/api/plans/${plan.id}/publish`, { cookie, body: { version: plan.version } })).status).toBe(409);
+    plan = res.body;
+  });
+
+  it('keeps a published plan editable: a move answers the re-timed plan, still published, one version up, and the moved job stays booked', async () => {
+    const [a, b] = routed(plan);
+    const job = a.stops[a.stops.length - 1].jobs[0];
+    const res = await call('PATCH', `/api/plans/${plan.id}`, { cookie, body: { version: plan.version, moves: [{ jobId: job.id, toFarrierId: b.farrierId }] } });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.state).toBe('published');
+    expect(res.body.version).toBe(plan.version + 1);
+    expect(farrierOf(res.body, job.id)).toBe(b.farrierId);
+    expect((await knex('plans').where({ id: plan.id }).first('version')).version).toBe(plan.version + 1);
+    expect((await knex('jobs').where({ id: job.id }).first('state')).state).toBe('booked');
   });
 });
