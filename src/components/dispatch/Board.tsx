@@ -427,6 +427,7 @@ const StopCard = memo(function StopCard({ stop, farrierId, units, selected, onSe
       {...attributes}
       {...listeners}
       onClick={() => onSelectBarn(selected ? null : stop.barnId)}
+      aria-current={selected || undefined}
       className={`cursor-grab rounded-lg border bg-white p-2 text-sm outline-none focus-visible:ring-2 focus-visible:ring-ember-400 ${selected ? 'border-ember-500 ring-2 ring-ember-200' : 'border-slateblue-200'} ${stop.warnings.length ? 'border-l-4 border-l-ember-600' : ''} ${isDragging ? 'opacity-40' : ''}`}
       data-stop={stop.id}
       data-barn={stop.barnId}
@@ -536,6 +537,7 @@ const UnplannedCard = memo(function UnplannedCard({ item, selected, onSelectBarn
       {...attributes}
       {...listeners}
       onClick={() => onSelectBarn(selected ? null : item.barnId)}
+      aria-current={selected || undefined}
       className={`cursor-grab rounded-md border bg-white px-2 py-1.5 text-xs outline-none focus-visible:ring-2 focus-visible:ring-ember-400 ${selected ? 'border-ember-500 ring-2 ring-ember-200' : 'border-hay-200'} ${isDragging ? 'opacity-40' : ''}`}
       data-job={item.jobId}
       data-barn={item.barnId}

@@ -16,6 +16,7 @@ import {
   homesLayer,
   INTERACTIVE_LAYER_IDS,
   LAYER_IDS,
+  routeIds,
   routeLayers,
   routesCasingLayer,
   routeSourcesData,
@@ -44,11 +45,24 @@ const EMPTY_LINES: GeoJSON.FeatureCollection<GeoJSON.LineString> = { type: 'Feat
 
 type Picked = { kind: 'barn'; barn: MapBarn } | { kind: 'home'; home: MapHome };
 
+/**
+ * What the map shows, read back from maplibre whenever it settles rather than from the props, so that
+ * people and tests alike see what was drawn: road names on screen, farriers whose route line is drawn,
+ * the barn drawn as selected, and the visible bounds (west, south, east, north).
+ */
+interface Drawn {
+  roadLabels: number;
+  routeLines: number;
+  selectedBarn: string;
+  bounds: string;
+}
+const NOTHING_DRAWN: Drawn = { roadLabels: 0, routeLines: 0, selectedBarn: '', bounds: '' };
+
 export default function MapView({ barns, homes, routes = [], selectedBarnId, onBarnClick, fitTo = 'all', units = 'miles', height = '70vh' }: MapViewProps) {
   const mapRef = useRef<MapRef>(null);
   const [picked, setPicked] = useState<Picked | null>(null);
   const [loaded, setLoaded] = useState(false);
-  const [roadLabels, setRoadLabels] = useState(0);
+  const [drawn, setDrawn] = useState<Drawn>(NOTHING_DRAWN);
   const [cursor, setCursor] = useState<string>('');
   const styleUrl = `${window.location.origin}/tiles/style.json`;
 
@@ -61,6 +75,8 @@ export default function MapView({ barns, homes, routes = [], selectedBarnId, onB
     routeCache.current = routeSourcesData(routes, routeCache.current);
     return [...routeCache.current.entries()];
   }, [routes]);
+  const routeLineIds = useRef<string[]>([]);
+  routeLineIds.current = routeSources.map(([key]) => routeIds(key).line);
 
   const bounds = useMemo(() => {
     if (Array.isArray(fitTo)) return fitTo;
@@ -105,15 +121,32 @@ export default function MapView({ barns, homes, routes = [], selectedBarnId, onB
   );
 
   const onIdle = useCallback(() => {
-    // Exposed on the container for people and tests alike: how many road names are on screen.
     const map = mapRef.current;
-    if (map) setRoadLabels(map.queryRenderedFeatures(undefined, { layers: ['road-label', 'road-label-minor'] }).length);
+    if (!map) return;
+    const lineIds = routeLineIds.current.filter((id) => map.getLayer(id));
+    const farriers = new Set(lineIds.length ? map.queryRenderedFeatures(undefined, { layers: lineIds }).map((f) => String(f.properties?.farrierId)) : []);
+    const selected = map.queryRenderedFeatures(undefined, { layers: [LAYER_IDS.barns], filter: ['get', 'selected'] });
+    const next: Drawn = {
+      roadLabels: map.queryRenderedFeatures(undefined, { layers: ['road-label', 'road-label-minor'] }).length,
+      routeLines: farriers.size,
+      selectedBarn: [...new Set(selected.map((f) => String(f.properties?.id)))].join(','),
+      bounds: map.getBounds().toArray().flat().map((v) => v.toFixed(6)).join(','),
+    };
+    setDrawn((prev) => (Object.keys(next) as (keyof Drawn)[]).every((k) => prev[k] === next[k]) ? prev : next);
   }, []);
 
   const legendStates = Object.keys(DUE_STATES) as DueState[];
 
   return (
-    <div className="relative overflow-hidden rounded-lg border border-slateblue-200" style={{ height }} data-map-ready={loaded ? 'true' : 'false'} data-road-labels={roadLabels}>
+    <div
+      className="relative overflow-hidden rounded-lg border border-slateblue-200"
+      style={{ height }}
+      data-map-ready={loaded ? 'true' : 'false'}
+      data-road-labels={drawn.roadLabels}
+      data-route-lines={drawn.routeLines}
+      data-selected-barn={drawn.selectedBarn}
+      data-bounds={drawn.bounds}
+    >
       <Map
         ref={mapRef}
         mapStyle={styleUrl}

@@ -5,9 +5,10 @@ import { addDays, isoWeekday, todayIn } from '../../../src/lib/dispatch/time.ts'
  * Plan dates the dispatch tests own, so they never share a day with each other or with other test
  * files: the n-th Monday–Thursday after the practice's today (every demo farrier but one works then).
  * 1 = the planning test (the next such working day), 2 = the browser test, 3 = the edit tests,
- * 4 = the long-lane browser test, 5 = the sideways keyboard-drag browser test.
+ * 4 = the long-lane browser test, 5 = the sideways keyboard-drag browser test, 6 = the map and board
+ * browser test.
  */
-export function dispatchTestDate(timeZone: string, n: 1 | 2 | 3 | 4 | 5): string {
+export function dispatchTestDate(timeZone: string, n: 1 | 2 | 3 | 4 | 5 | 6): string {
   let d = todayIn(timeZone);
   let found = 0;
   for (;;) {
