@@ -74,15 +74,19 @@ export function ruinAround(s: State, rng: Rng, p: SisrParams): { removed: number
 }
 
 /**
- * The jobs a recreate step should try: those just removed, plus left-out jobs near the ruined area
- * and a few random left-out ones. Trying every left-out job each time would make an iteration cost
- * grow with the number left out (hundreds on large days) without helping the search.
+ * The left-out jobs a recreate step should try after putting back the jobs just removed: all of
+ * them on a day with few left out, otherwise those near the ruined area and a few random ones.
+ * Trying every left-out job each time would make an iteration cost grow with the number left out
+ * (hundreds on large days) without helping the search.
  */
-export function recreateCandidates(s: State, rng: Rng, removed: number[], seed: number, hopeless: Uint8Array, extra = 4): number[] {
-  const out = removed.slice();
+export function leftOutCandidates(s: State, rng: Rng, removed: number[], seed: number, hopeless: Uint8Array, extra = 4): number[] {
+  const out: number[] = [];
   if (s.unassigned.size === removed.length) return out;
-  if (s.unassigned.size <= 40) return [...s.unassigned].filter((j) => !hopeless[j]);
-  const inList = new Set(out);
+  const inList = new Set(removed);
+  if (s.unassigned.size <= 40) {
+    for (const j of s.unassigned) if (!hopeless[j] && !inList.has(j)) out.push(j);
+    return out;
+  }
   if (seed >= 0) {
     const nb = s.m.neighbours[seed];
     for (let k = 0; k < Math.min(20, nb.length); k++) {
@@ -134,6 +138,20 @@ export function recreate(s: State, rng: Rng, p: SisrParams, allowed?: Uint8Array
     if (bf >= 0) s.insert(j, bf, bp);
   }
   s.recomputeCost();
+}
+
+/**
+ * The recreate half of a search step: the jobs the ruin removed go back first (regret-2 or greedy
+ * insertion), and the left-out candidates only fill the room that remains. Mixed into one pass, a
+ * job left out for long often took the place a removed job had and pushed that one out in turn; on
+ * days with optional jobs most steps then ended in a worse plan, and the search found the better
+ * plans that leave other jobs out far later (figures in docs/solver.md).
+ */
+export function putBack(s: State, rng: Rng, p: SisrParams, removed: number[], leftOut: number[], regret: boolean): void {
+  for (const jobs of leftOut.length ? [removed, leftOut] : [removed]) {
+    if (regret) regretRecreate(s, rng, p, jobs);
+    else recreate(s, rng, p, undefined, jobs);
+  }
 }
 
 /**

@@ -3,7 +3,7 @@ import { impossibleReason, type UnplannedReason } from './diagnose';
 import { localSearch } from './moves';
 import { createRng, type Rng } from './random';
 import { evalRoute } from './route-eval';
-import { annealTemperature, DEFAULT_SISR, greedyConstruct, recreate, recreateCandidates, regretConstruct, regretRecreate, ruin, ruinAround } from './sisr';
+import { annealTemperature, DEFAULT_SISR, greedyConstruct, leftOutCandidates, putBack, recreate, regretConstruct, ruin, ruinAround } from './sisr';
 /**
  * Share of recreate steps that use regret insertion instead of greedy insertion, on problems of up
  * to 400 jobs (as for construction; on a 1,000-job day it lost to greedy insertion within 30 s).
@@ -175,9 +175,8 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
       const T = annealTemperature(m, (iterations - cycleStart) / cycle);
       const cand = cur.clone();
       const { removed, seed } = ruinAround(cand, rng, DEFAULT_SISR);
-      const cands = recreateCandidates(cand, rng, removed, seed, hopeless);
-      if (m.nJobs <= 400 && rng.next() < REGRET_SHARE) regretRecreate(cand, rng, DEFAULT_SISR, cands);
-      else recreate(cand, rng, DEFAULT_SISR, undefined, cands);
+      const leftOut = leftOutCandidates(cand, rng, removed, seed, hopeless);
+      putBack(cand, rng, DEFAULT_SISR, removed, leftOut, m.nJobs <= 400 && rng.next() < REGRET_SHARE);
       iterations++;
       sinceBest++;
       if (pool) for (const f of cand.touched) if (cand.routes[f].length) pool.add(cand.routes[f], cand.evals[f].cost - m.fixedCost[f]);

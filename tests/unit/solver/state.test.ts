@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { buildModel } from '../../../src/lib/solver/model';
 import { createRng } from '../../../src/lib/solver/random';
 import { evalRoute } from '../../../src/lib/solver/route-eval';
-import { regretConstruct, regretRecreate, DEFAULT_SISR, ruinAround } from '../../../src/lib/solver/sisr';
+import { regretConstruct, regretRecreate, DEFAULT_SISR, ruinAround, leftOutCandidates, putBack } from '../../../src/lib/solver/sisr';
 import { materialize, State } from '../../../src/lib/solver/state';
 import { checkSolution } from '../../../src/lib/solver/checker';
 import { randomProblem } from './helpers';
@@ -65,5 +65,44 @@ describe('regret recreate', () => {
         expect(removed.every((j) => c.routeOf[j] >= 0 || c.unassigned.has(j))).toBe(true);
       }
     }
+  });
+});
+
+describe('putting jobs back after a ruin', () => {
+  it('offers only jobs left out before the ruin, and never lets one take the place of a job the ruin removed', () => {
+    let stepsWithLeftOut = 0, leftOutPlaced = 0;
+    for (const seed of [41, 42, 43, 44]) {
+      // a tight day: some jobs are left out for good, so both kinds of job compete for the room
+      const p = randomProblem(seed, { jobs: 24, farriers: 3, breaks: true, tight: true });
+      const m = buildModel(p);
+      const s = new State(m);
+      const rng = createRng(seed);
+      regretConstruct(s, rng);
+      const none = new Uint8Array(m.nJobs);
+      for (let t = 0; t < 40; t++) {
+        const before = new Set(s.unassigned);
+        const c = s.clone();
+        const { removed, seed: around } = ruinAround(c, rng, DEFAULT_SISR);
+        const leftOut = leftOutCandidates(c, rng, removed, around, none);
+        expect(leftOut.filter((j) => removed.includes(j) || !before.has(j))).toEqual([]);
+        // with few left out, every one of them is offered
+        expect([...leftOut].sort((a, b) => a - b)).toEqual([...before].sort((a, b) => a - b));
+        if (!leftOut.length) continue;
+        stepsWithLeftOut++;
+        // the same step without the left-out jobs, from the same random draws
+        const regret = t % 2 === 0;
+        const alone = c.clone();
+        const draws = rng.int(1 << 30);
+        putBack(alone, createRng(draws), { ...DEFAULT_SISR, blinkRate: 0 }, removed, [], regret);
+        putBack(c, createRng(draws), { ...DEFAULT_SISR, blinkRate: 0 }, removed, leftOut, regret);
+        // every removed job the step alone put back is back in the full step, in the same place
+        for (const j of removed) if (alone.routeOf[j] >= 0) expect(c.routeOf[j]).toBe(alone.routeOf[j]);
+        leftOutPlaced += leftOut.filter((j) => c.routeOf[j] >= 0).length;
+        expect(c.cost).toBeLessThanOrEqual(alone.cost + 1e-6);
+      }
+    }
+    // the case this guards was exercised: left-out jobs were offered, and some found room
+    expect(stepsWithLeftOut).toBeGreaterThan(40);
+    expect(leftOutPlaced).toBeGreaterThan(0);
   });
 });
