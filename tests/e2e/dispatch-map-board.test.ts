@@ -41,6 +41,17 @@ function project([lon, lat]: [number, number], [w, s, e, n]: Box, canvas: { x: n
 async function drawnLines(page: Page, answer: Promise<{ json(): Promise<{ lines: Line[] }> }>): Promise<{ lines: Line[]; bounds: Box }> {
   const lines = (await (await answer).json()).lines.filter((l) => l.coordinates.length >= 2);
   await page.waitForSelector(`${MAP}[data-route-lines="${lines.length}"]`, { timeout: 60_000 });
+  // The lines can be drawn a frame before the map re-frames to them (on a reload the plan's lines may
+  // arrive before the map has loaded): wait for a settled view that frames them as expectFramed
+  // checks, or for the time-out, after which the checks below say what is wrong.
+  const box = boxOf(lines.flatMap((l) => l.coordinates));
+  await page.waitForFunction(([selector, [w, s, e, n]]) => {
+    const b = document.querySelector(selector)?.getAttribute('data-bounds')?.split(',').map(Number);
+    if (!b || b.length !== 4) return false;
+    const y = (lat: number) => Math.log(Math.tan(Math.PI / 4 + (lat * Math.PI) / 360));
+    const inside = w >= b[0] && e <= b[2] && s >= b[1] && n <= b[3];
+    return inside && Math.max((e - w) / (b[2] - b[0]), (y(n) - y(s)) / (y(b[3]) - y(b[1]))) > 0.6;
+  }, [MAP, box] as const, { timeout: 15_000 }).catch(() => undefined);
   const bounds = (await page.getAttribute(MAP, 'data-bounds'))!.split(',').map(Number);
   expect(bounds).toHaveLength(4);
   return { lines, bounds: bounds as Box };

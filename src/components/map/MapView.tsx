@@ -87,16 +87,21 @@ export default function MapView({ barns, homes, routes = [], selectedBarnId, onB
 
   // Re-frame only when the framed area changes, not on every render with new arrays of the same places.
   const boundsKey = bounds ? bounds.map((v) => v.toFixed(6)).join(',') : '';
+  const latestBounds = useRef(bounds);
+  latestBounds.current = bounds;
+  const frame = useCallback((map: Pick<MapRef, 'fitBounds'> | null | undefined) => {
+    const b = latestBounds.current;
+    if (b) map?.fitBounds([[b[0], b[1]], [b[2], b[3]]], { padding: 48, duration: 0, maxZoom: 15 });
+  }, []);
   useEffect(() => {
-    if (!loaded || !bounds) return;
-    mapRef.current?.fitBounds(
-      [
-        [bounds[0], bounds[1]],
-        [bounds[2], bounds[3]],
-      ],
-      { padding: 48, duration: 0, maxZoom: 15 },
-    );
-  }, [loaded, boundsKey]);
+    if (loaded) frame(mapRef.current);
+  }, [loaded, boundsKey, frame]);
+  // Framed on load as well, before the first frame is drawn: waiting for the effect above would first
+  // show the starting view for a frame, with route lines that arrived before the map had loaded.
+  const onLoad = useCallback((event: { target: Pick<MapRef, 'fitBounds'> }) => {
+    frame(event.target);
+    setLoaded(true);
+  }, [frame]);
 
   const onClick = useCallback(
     (event: MapLayerMouseEvent) => {
@@ -155,7 +160,7 @@ export default function MapView({ barns, homes, routes = [], selectedBarnId, onB
         maxZoom={17}
         interactiveLayerIds={INTERACTIVE_LAYER_IDS}
         onClick={onClick}
-        onLoad={() => setLoaded(true)}
+        onLoad={onLoad}
         onIdle={onIdle}
         onMouseEnter={() => setCursor('pointer')}
         onMouseLeave={() => setCursor('')}
