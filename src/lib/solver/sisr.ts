@@ -142,13 +142,17 @@ export function recreate(s: State, rng: Rng, p: SisrParams, allowed?: Uint8Array
 
 /**
  * The recreate half of a search step: the jobs the ruin removed go back first (regret-2 or greedy
- * insertion), and the left-out candidates only fill the room that remains. Mixed into one pass, a
+ * insertion), together with any mandatory job still left out, and the optional left-out candidates
+ * only fill the room that remains. Mixed into one pass, a
  * job left out for long often took the place a removed job had and pushed that one out in turn; on
  * days with optional jobs most steps then ended in a worse plan, and the search found the better
  * plans that leave other jobs out far later (figures in docs/solver.md).
  */
 export function putBack(s: State, rng: Rng, p: SisrParams, removed: number[], leftOut: number[], regret: boolean): void {
-  for (const jobs of leftOut.length ? [removed, leftOut] : [removed]) {
+  // a mandatory job left out (no room for it yet) goes back with the removed jobs: room is its first
+  const first = removed.slice(), rest: number[] = [];
+  for (const j of leftOut) (s.m.mandatory[j] ? first : rest).push(j);
+  for (const jobs of rest.length ? [first, rest] : [first]) {
     if (regret) regretRecreate(s, rng, p, jobs);
     else recreate(s, rng, p, undefined, jobs);
   }

@@ -6,6 +6,7 @@ import { regretConstruct, regretRecreate, DEFAULT_SISR, ruinAround, leftOutCandi
 import { materialize, State } from '../../../src/lib/solver/state';
 import { checkSolution } from '../../../src/lib/solver/checker';
 import { randomProblem } from './helpers';
+import { createProblem } from '../../../src/lib/solver/problem';
 
 describe('piece evaluation (State.costOf)', () => {
   it('gives the same cost as re-timing the built sequence from scratch, and Infinity exactly when that breaks a rule', () => {
@@ -69,7 +70,7 @@ describe('regret recreate', () => {
 });
 
 describe('putting jobs back after a ruin', () => {
-  it('offers only jobs left out before the ruin, and never lets one take the place of a job the ruin removed', () => {
+  it('offers only jobs left out before the ruin, and never lets an optional one take the place of a removed job or of a mandatory one', () => {
     let stepsWithLeftOut = 0, leftOutPlaced = 0;
     for (const seed of [41, 42, 43, 44]) {
       // a tight day: some jobs are left out for good, so both kinds of job compete for the room
@@ -89,14 +90,15 @@ describe('putting jobs back after a ruin', () => {
         expect([...leftOut].sort((a, b) => a - b)).toEqual([...before].sort((a, b) => a - b));
         if (!leftOut.length) continue;
         stepsWithLeftOut++;
-        // the same step without the left-out jobs, from the same random draws
+        // the same step without the optional left-out jobs, from the same random draws
         const regret = t % 2 === 0;
+        const first = removed.concat(leftOut.filter((j) => m.mandatory[j]));
         const alone = c.clone();
         const draws = rng.int(1 << 30);
-        putBack(alone, createRng(draws), { ...DEFAULT_SISR, blinkRate: 0 }, removed, [], regret);
+        putBack(alone, createRng(draws), { ...DEFAULT_SISR, blinkRate: 0 }, first, [], regret);
         putBack(c, createRng(draws), { ...DEFAULT_SISR, blinkRate: 0 }, removed, leftOut, regret);
-        // every removed job the step alone put back is back in the full step, in the same place
-        for (const j of removed) if (alone.routeOf[j] >= 0) expect(c.routeOf[j]).toBe(alone.routeOf[j]);
+        // every job the step without them placed is placed in the full step too, in the same route
+        for (const j of first) if (alone.routeOf[j] >= 0) expect(c.routeOf[j]).toBe(alone.routeOf[j]);
         leftOutPlaced += leftOut.filter((j) => c.routeOf[j] >= 0).length;
         expect(c.cost).toBeLessThanOrEqual(alone.cost + 1e-6);
       }
@@ -104,5 +106,34 @@ describe('putting jobs back after a ruin', () => {
     // the case this guards was exercised: left-out jobs were offered, and some found room
     expect(stepsWithLeftOut).toBeGreaterThan(40);
     expect(leftOutPlaced).toBeGreaterThan(0);
+  });
+});
+
+describe('a mandatory job left out', () => {
+  it('gets the room a ruin frees before the optional job the ruin removed', () => {
+    // one farrier whose shift holds one of two hour-long jobs: the optional one is planned, the
+    // mandatory one is still out; a ruin removes the optional one
+    const H = 3600;
+    const p = createProblem({
+      locations: 3,
+      durationSec: [[0, 600, 600], [600, 0, 600], [600, 600, 0]],
+      distanceM: [[0, 9000, 9000], [9000, 0, 9000], [9000, 9000, 0]],
+      farriers: [{ id: 'f1', startLocation: 0, endLocation: 0, shiftStartSec: 8 * H, shiftEndSec: 10 * H, breakSec: 0, breakWindow: null, normalWorkSec: 2 * H, maxOvertimeSec: 0, costPerDriveSec: 1, costPerMetre: 0.04, costPerOvertimeSec: 2, qualified: false, hasForge: true }],
+      barns: [{ id: 'b1', location: 1, windows: [{ startSec: 7 * H, endSec: 18 * H }], setupSec: 300 }, { id: 'b2', location: 2, windows: [{ startSec: 7 * H, endSec: 18 * H }], setupSec: 300 }],
+      jobs: [
+        { id: 'optional', barnId: 'b1', durationSec: H, optional: true, penalty: 5000 },
+        { id: 'mandatory', barnId: 'b2', durationSec: H },
+      ],
+    });
+    for (const regret of [false, true]) {
+      const s = new State(buildModel(p));
+      s.insert(0, 0, 0);
+      s.recomputeCost();
+      expect(s.unassigned.has(1)).toBe(true);
+      s.removeMany([0]);
+      putBack(s, createRng(7), { ...DEFAULT_SISR, blinkRate: 0 }, [0], [1], regret);
+      expect(s.routes[0]).toEqual([1]);
+      expect([...s.unassigned]).toEqual([0]);
+    }
   });
 });
