@@ -1,6 +1,7 @@
 import { afterAll, beforeAll } from 'vitest';
 import type { Knex } from 'knex';
-import { launch } from './browser.ts';
+import type { Page, Response } from 'playwright-core';
+import { APP_URL, hydrated, launch, signIn } from './browser.ts';
 import { appDatabase } from '../integration/helpers/db.ts';
 import { clearPlan, dispatchTestDate } from '../integration/dispatch/dates.ts';
 
@@ -23,4 +24,30 @@ export function dispatchBrowserDay(n: Parameters<typeof dispatchTestDate>[1], vi
     await day.knex?.destroy();
   });
   return day;
+}
+
+/** Signs the demo dispatcher in and opens the dispatch screen on `date`, its islands hydrated. */
+export async function openDispatch(page: Page, date: string): Promise<void> {
+  await signIn(page, 'dispatcher@demo.test');
+  await page.goto(`${APP_URL}/dispatch?date=${date}`);
+  await hydrated(page);
+}
+
+/** The board's farrier lanes, left to right (the unplanned lane left out). */
+export async function farrierLanes(page: Page): Promise<string[]> {
+  return (await page.$$eval('[data-lane]', (els) => els.map((e) => e.getAttribute('data-lane')!))).filter((l) => l !== 'unplanned');
+}
+
+/**
+ * Drags the focused card with the keyboard: lift with Space, one arrow key, drop with Space. dnd-kit
+ * settles the lifted card and the new drop target between key presses. Answers the PATCH it sends.
+ */
+export async function keyboardDrag(page: Page, key: 'ArrowLeft' | 'ArrowRight', timeout?: number): Promise<Response> {
+  const patch = page.waitForResponse((r) => r.request().method() === 'PATCH' && r.url().includes('/api/plans/'), timeout === undefined ? {} : { timeout });
+  await page.keyboard.press('Space');
+  await page.waitForTimeout(300);
+  await page.keyboard.press(key);
+  await page.waitForTimeout(300);
+  await page.keyboard.press('Space');
+  return patch;
 }

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { APP_URL, hydrated, screenshot, signIn } from './browser.ts';
+import { screenshot } from './browser.ts';
 import { call, sessionCookie } from '../integration/helpers/api.ts';
-import { dispatchBrowserDay } from './dispatch-day.ts';
+import { dispatchBrowserDay, farrierLanes, keyboardDrag, openDispatch } from './dispatch-day.ts';
 
 // Narrow enough that the board's lanes do not all fit: the board scrolls sideways.
 const day = dispatchBrowserDay(5, { width: 1400, height: 900 });
@@ -16,16 +16,14 @@ describe('a keyboard drag on a board scrolled sideways', () => {
     expect(planned.status).toBe(201);
 
     const { page } = day.browser;
-    await signIn(page, 'dispatcher@demo.test');
-    await page.goto(`${APP_URL}/dispatch?date=${date}`);
-    await hydrated(page);
+    await openDispatch(page, date);
     await page.waitForSelector('[data-lane] [data-stop]');
-    const farrierLanes = (await page.$$eval('[data-lane]', (els) => els.map((e) => e.getAttribute('data-lane')!))).filter((l) => l !== 'unplanned');
+    const lanes = await farrierLanes(page);
     // The first farrier lane with work, and the farrier lane after it (the one ArrowRight reaches).
     const routes = planned.body.routes as Route[];
-    const at = farrierLanes.findIndex((l) => (routes.find((r) => String(r.farrierId) === l)?.stops.length ?? 0) > 0 && farrierLanes.indexOf(l) < farrierLanes.length - 1);
+    const at = lanes.findIndex((l) => (routes.find((r) => String(r.farrierId) === l)?.stops.length ?? 0) > 0 && lanes.indexOf(l) < lanes.length - 1);
     expect(at).toBeGreaterThanOrEqual(0);
-    const [source, target] = [farrierLanes[at]!, farrierLanes[at + 1]!];
+    const [source, target] = [lanes[at]!, lanes[at + 1]!];
 
     // Scroll the board to its far right, so the source lane is out of the board's view to the left,
     // and put the keyboard focus on its first card without scrolling it back.
@@ -48,13 +46,7 @@ describe('a keyboard drag on a board scrolled sideways', () => {
     expect(out).toBe(true);
 
     // Lift, one lane to the right, drop.
-    const patch = page.waitForResponse((r) => r.request().method() === 'PATCH' && r.url().includes('/api/plans/'), { timeout: 15_000 });
-    await page.keyboard.press('Space');
-    await page.waitForTimeout(300);
-    await page.keyboard.press('ArrowRight');
-    await page.waitForTimeout(300);
-    await page.keyboard.press('Space');
-    const answer = await patch;
+    const answer = await keyboardDrag(page, 'ArrowRight', 15_000);
     expect(answer.status()).toBe(200);
     const body = await answer.json();
     const holder = (body.routes as Route[]).find((r) => r.stops.some((s) => s.jobs.some((j) => j.id === jobId)))!;

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { APP_URL, hydrated, screenshot, signIn } from './browser.ts';
+import { screenshot } from './browser.ts';
 import { call, sessionCookie } from '../integration/helpers/api.ts';
-import { dispatchBrowserDay } from './dispatch-day.ts';
+import { dispatchBrowserDay, farrierLanes, keyboardDrag, openDispatch } from './dispatch-day.ts';
 
 const day = dispatchBrowserDay(4);
 const { date } = day;
@@ -27,9 +27,7 @@ describe('a long lane on the dispatch board', () => {
     const last = lane.stops[lane.stops.length - 1]!;
 
     const { page } = day.browser;
-    await signIn(page, 'dispatcher@demo.test');
-    await page.goto(`${APP_URL}/dispatch?date=${date}`);
-    await hydrated(page);
+    await openDispatch(page, date);
     const laneSel = `[data-lane="${long.farrierId}"]`;
     await page.waitForSelector(`${laneSel} [data-stop]`);
     // Only the cards in and near the lane's view are mounted: the last stop is not in the page yet.
@@ -70,17 +68,11 @@ describe('a long lane on the dispatch board', () => {
     await screenshot(page, 'dispatch-e2e-long-lane');
 
     // Lift it with Space, move it one lane sideways (to a farrier's lane, not the unplanned one), drop with Space.
-    const farrierLanes = (await page.$$eval('[data-lane]', (els) => els.map((e) => e.getAttribute('data-lane')!))).filter((l) => l !== 'unplanned');
-    const at = farrierLanes.indexOf(String(long.farrierId));
-    const [key, target] = at > 0 ? ['ArrowLeft', farrierLanes[at - 1]!] : ['ArrowRight', farrierLanes[at + 1]!];
+    const lanes = await farrierLanes(page);
+    const at = lanes.indexOf(String(long.farrierId));
+    const [key, target] = at > 0 ? (['ArrowLeft', lanes[at - 1]!] as const) : (['ArrowRight', lanes[at + 1]!] as const);
     await card.focus();
-    const patch = page.waitForResponse((r) => r.request().method() === 'PATCH' && r.url().includes('/api/plans/'));
-    await page.keyboard.press('Space');
-    await page.waitForTimeout(300);
-    await page.keyboard.press(key);
-    await page.waitForTimeout(300);
-    await page.keyboard.press('Space');
-    const answer = await patch;
+    const answer = await keyboardDrag(page, key);
     expect(answer.status()).toBe(200);
     const body = await answer.json();
     const holder = (body.routes as Route[]).find((r) => r.stops.some((s) => s.jobs.some((j) => j.id === last.jobs[0]!.id)))!;

@@ -3,8 +3,8 @@
 // (the container's data-selected-barn, data-route-lines and data-bounds), not echoed from React props.
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { APP_URL, hydrated, screenshot, signIn } from './browser.ts';
-import { dispatchBrowserDay } from './dispatch-day.ts';
+import { APP_URL, hydrated, screenshot } from './browser.ts';
+import { dispatchBrowserDay, openDispatch } from './dispatch-day.ts';
 import type { PlanView } from '../../src/schemas/plans.ts';
 
 const day = dispatchBrowserDay(6);
@@ -75,9 +75,7 @@ const linesOf = (page: Page) => page.waitForResponse((r) => /\/api\/plans\/\d+\/
 describe('the dispatch map and board', () => {
   it('frames the day\'s routes, and a barn picked on the board or on the map is selected on both', async () => {
     const { page } = day.browser;
-    await signIn(page, 'dispatcher@demo.test');
-    await page.goto(`${APP_URL}/dispatch?date=${date}`);
-    await hydrated(page);
+    await openDispatch(page, date);
     await page.waitForSelector('[data-testid=no-plan]');
     await page.waitForSelector(MAP, { timeout: 60_000 });
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { APP_URL, hydrated, screenshot, signIn } from './browser.ts';
-import { dispatchBrowserDay } from './dispatch-day.ts';
+import { hydrated, screenshot } from './browser.ts';
+import { dispatchBrowserDay, keyboardDrag, openDispatch } from './dispatch-day.ts';
 
 const day = dispatchBrowserDay(2);
 const { date } = day;
@@ -8,9 +8,7 @@ const { date } = day;
 describe('the dispatcher plans a day in the browser', () => {
   it('plans, sees routes and lanes, drags by mouse and by keyboard, publishes, and finds the same plan after a reload', async () => {
     const { page } = day.browser;
-    await signIn(page, 'dispatcher@demo.test');
-    await page.goto(`${APP_URL}/dispatch?date=${date}`);
-    await hydrated(page);
+    await openDispatch(page, date);
     await page.waitForSelector('[data-testid=no-plan]');
 
     const linesAnswer = page.waitForResponse((r) => /\/api\/plans\/\d+\/lines/.test(r.url()) && r.status() === 200, { timeout: 60_000 });
@@ -52,14 +50,7 @@ describe('the dispatcher plans a day in the browser', () => {
     const kCard = page.locator(`[data-lane="${laneC}"] [data-stop]`).first();
     const kBarn = await kCard.getAttribute('data-barn');
     await kCard.focus();
-    const patch2 = page.waitForResponse((r) => r.request().method() === 'PATCH' && r.url().includes('/api/plans/'));
-    // dnd-kit settles the lifted card and the new drop target between key presses.
-    await page.keyboard.press('Space');
-    await page.waitForTimeout(300);
-    await page.keyboard.press('ArrowLeft');
-    await page.waitForTimeout(300);
-    await page.keyboard.press('Space');
-    const answer = await patch2;
+    const answer = await keyboardDrag(page, 'ArrowLeft');
     expect(answer.status()).toBe(200);
     const body = await answer.json();
     // Two edits so far (mouse, keyboard): version 1 → 3; the barn's stop now sits in another farrier's route.
