@@ -3,8 +3,10 @@
  *   npm run --silent bench -- --solomon FILE --seconds S [--seed N] --json
  *   npm run --silent bench -- --tsplib FILE --seconds S [--seed N] --json
  *   npm run bench -- --suite [--seconds-tsp 5] [--seconds-vrptw 30] [--seed N]
- *   npm run bench -- --farrier-day [--seeds 1-5] [--seconds 3] [--reference-seconds 60]
+ *   npm run bench -- --farrier-day [--seeds 1-5] [--seconds 3] [--reference-seconds 60] [--searches 2]
  *   npm run bench -- --farrier-day [--seeds 1-10] --iterations 25000 --reference-iterations 500000
+ * The farrier day runs as the dispatch screen does: side-by-side searches (default 2) in worker
+ * threads, the best plan kept; an iteration budget is then each search's.
  * Single-instance runs print one JSON object on stdout (nothing else); the suite prints a table of
  * published value, our value, gap and seconds, each result re-checked by an independent checker.
  */
@@ -52,7 +54,7 @@ async function main() {
     const gaps: number[] = [];
     let within = 0, misses = 0;
     for (const s of seeds) {
-      const r = runFarrierDay(s, short, ref, its);
+      const r = await runFarrierDay(s, short, ref, its, num('--searches', 2));
       const worse = r.extraMandatoryOut > 0 ? ` but leaves ${r.extraMandatoryOut} more mandatory job(s) out` : '';
       process.stdout.write(`seed ${s}\n  ${r.lines[0]}\n  ${r.lines[1]}\n  ${shortName} result is ${r.gapPct.toFixed(2)} % above the ${refName} result${worse}\n`);
       gaps.push(r.gapPct);
@@ -66,7 +68,7 @@ async function main() {
   }
   const solomon = arg('--solomon'), tsplib = arg('--tsplib');
   if (!solomon && !tsplib) {
-    process.stderr.write('usage: bench --solomon FILE | --tsplib FILE [--seconds S] [--seed N] [--json] | --suite | --farrier-day [--seeds 1-5] [--seconds S --reference-seconds S | --iterations N --reference-iterations N]\n');
+    process.stderr.write('usage: bench --solomon FILE | --tsplib FILE [--seconds S] [--seed N] [--json] | --suite | --farrier-day [--seeds 1-5] [--seconds S --reference-seconds S | --iterations N --reference-iterations N] [--searches N]\n');
     process.exit(2);
   }
   if (solomon) {

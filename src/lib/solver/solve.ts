@@ -75,7 +75,10 @@ export interface SolveResult {
     improvements: number;
     farriersUsed: number;
     stopReason: 'iterations' | 'seconds' | 'no_improvement' | 'cancelled' | 'nothing_to_do';
+    /** The seed of the search that found this plan. */
     seed: number;
+    /** Searches run side by side by `solveInWorker` (iterations are their total); absent for one `solve`. */
+    searches?: number;
   };
 }
 
@@ -245,6 +248,21 @@ function fleetPhase(
     best = cur;
   }
   return { best, iterations };
+}
+
+/**
+ * The better of several plans for one problem: fewest mandatory jobs left out (their cost is listed,
+ * not priced), then lowest cost; ties go to the earlier plan. Used to pick among side-by-side searches.
+ */
+export function bestOf(problem: Problem, results: SolveResult[]): SolveResult {
+  const optional = new Set(problem.jobs.filter((j) => j.optional).map((j) => j.id));
+  const mandatoryOut = (r: SolveResult) => r.unplanned.filter((u) => !optional.has(u.jobId)).length;
+  let best = results[0];
+  for (const r of results.slice(1)) {
+    const d = mandatoryOut(r) - mandatoryOut(best);
+    if (d < 0 || (d === 0 && r.cost < best.cost)) best = r;
+  }
+  return best;
 }
 
 function reportedCost(m: Model, s: State): number {

@@ -2,7 +2,7 @@ import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import type { Problem } from './problem';
-import type { Progress, SolveOptions, SolveResult } from './solve';
+import { bestOf, type Progress, type SolveOptions, type SolveResult } from './solve';
 
 /** Options for running the engine off the main thread. */
 export interface WorkerSolveOptions {
@@ -16,7 +16,15 @@ export interface WorkerSolveOptions {
   entry?: string;
   /** Extra seconds past the time budget before the worker is terminated outright (default 10). */
   graceSeconds?: number;
+  /**
+   * Independent searches run side by side, one worker thread each (default 2, the cores of the
+   * machines we run on); search k uses seed + 7919·k and the best plan wins (`bestOf`).
+   */
+  searches?: number;
 }
+
+/** Seed step between side-by-side searches (a prime, so their random streams share nothing obvious). */
+export const SEARCH_SEED_STEP = 7919;
 
 /** Worker source that loads tsx (resolved from the project root) and then the TypeScript entry. */
 function bootstrap(entry: string): string {
@@ -45,11 +53,11 @@ function startWorker(entry: string, workerData: unknown): Worker {
 /**
  * Warm workers for the default entry, waiting for their next problem. Starting a worker means loading
  * tsx and compiling the engine inside it, which costs about a second on a busy machine; a persistent
- * worker pays that once, so a plan request spends its time on the search. At most one waits; a second
- * run at the same moment starts its own worker, which is then kept or ended.
+ * worker pays that once, so a plan request spends its time on the search. At most two wait (one per
+ * side-by-side search); a run that finds none starts its own worker, which is then kept or ended.
  */
 const idle: Worker[] = [];
-const MAX_IDLE = 1;
+const MAX_IDLE = 2;
 let runSeq = 0;
 
 /** True when runs use the warm-worker pool: the default entry, not one chosen by option or environment. */
@@ -81,8 +89,45 @@ function park(worker: Worker): void {
  * the engine loaded. Cheap to call again; does nothing when an entry is chosen through the environment.
  */
 export function warmSolverWorker(): void {
-  if (process.env.ROUNDSMITH_SOLVER_WORKER || idle.length > 0) return;
-  park(startPersistent());
+  if (process.env.ROUNDSMITH_SOLVER_WORKER) return;
+  while (idle.length < MAX_IDLE) park(startPersistent());
+}
+
+/**
+ * Runs the engine off the main thread: `searches` independent searches (default 2) side by side,
+ * each `solve` in its own worker thread with its own seed, and returns the best plan. On a day with
+ * optional jobs a single run sometimes settles on a plan that leaves out a different job than the
+ * best plan does, and only a long run gets out of it; a second search started elsewhere often does
+ * not fall into the same place, so two searches for 3 s on two cores come closer to a long run than
+ * one (figures in docs/solver.md). Deterministic for a seed and an iteration limit, like `solve`.
+ * Progress reports the total iterations and the best cost so far; cancelling stops every search,
+ * each returning its best plan. A failure in any search (a ProblemError, say) rejects the whole run
+ * once every search has ended.
+ */
+export async function solveInWorker(
+  problem: Problem,
+  opts: Omit<SolveOptions, 'onProgress' | 'shouldStop'>,
+  w: WorkerSolveOptions = {},
+): Promise<SolveResult> {
+  const n = Math.max(1, Math.floor(w.searches ?? 2));
+  if (n === 1) return oneSearch(problem, opts, w);
+  if (w.signal?.aborted) throw new SolveCancelledError();
+  const latest: (Progress | undefined)[] = new Array(n).fill(undefined);
+  const report = (k: number, p: Progress) => {
+    latest[k] = p;
+    let best = p;
+    for (const q of latest) if (q && q.bestCost < best.bestCost) best = q;
+    let iterations = 0, seconds = 0;
+    for (const q of latest) if (q) { iterations += q.iterations; seconds = Math.max(seconds, q.seconds); }
+    w.onProgress!({ ...best, iterations, seconds });
+  };
+  const runs = await Promise.allSettled(Array.from({ length: n }, (_, k) =>
+    oneSearch(problem, { ...opts, seed: opts.seed + SEARCH_SEED_STEP * k }, { ...w, onProgress: w.onProgress ? (p) => report(k, p) : undefined })));
+  const failed = runs.find((r) => r.status === 'rejected');
+  if (failed) throw (failed as PromiseRejectedResult).reason;
+  const results = runs.map((r) => (r as PromiseFulfilledResult<SolveResult>).value);
+  const best = bestOf(problem, results);
+  return { ...best, statistics: { ...best.statistics, iterations: results.reduce((a, r) => a + r.statistics.iterations, 0), searches: n } };
 }
 
 /**
@@ -96,10 +141,10 @@ export function warmSolverWorker(): void {
  * worker (see `warmSolverWorker`) that stays up for the next run; a worker that had to be terminated
  * (time limit passed) or failed is never reused.
  */
-export function solveInWorker(
+function oneSearch(
   problem: Problem,
   opts: Omit<SolveOptions, 'onProgress' | 'shouldStop'>,
-  w: WorkerSolveOptions = {},
+  w: WorkerSolveOptions,
 ): Promise<SolveResult> {
   if (w.signal?.aborted) return Promise.reject(new SolveCancelledError());
   const stopFlag = new Int32Array(new SharedArrayBuffer(4));

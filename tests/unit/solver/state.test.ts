@@ -94,11 +94,14 @@ describe('putting jobs back after a ruin', () => {
         const regret = t % 2 === 0;
         const first = removed.concat(leftOut.filter((j) => m.mandatory[j]));
         const alone = c.clone();
+        const ruined = new Set(c.touched);
         const draws = rng.int(1 << 30);
         putBack(alone, createRng(draws), { ...DEFAULT_SISR, blinkRate: 0 }, first, [], regret);
         putBack(c, createRng(draws), { ...DEFAULT_SISR, blinkRate: 0 }, removed, leftOut, regret);
         // every job the step without them placed is placed in the full step too, in the same route
         for (const j of first) if (alone.routeOf[j] >= 0) expect(c.routeOf[j]).toBe(alone.routeOf[j]);
+        // an optional left-out job only goes to a route the step changed (ruined, or given a job back)
+        for (const j of leftOut) if (!m.mandatory[j] && c.routeOf[j] >= 0) expect(ruined.has(c.routeOf[j]) || alone.touched.has(c.routeOf[j])).toBe(true);
         leftOutPlaced += leftOut.filter((j) => c.routeOf[j] >= 0).length;
         expect(c.cost).toBeLessThanOrEqual(alone.cost + 1e-6);
       }
@@ -106,6 +109,42 @@ describe('putting jobs back after a ruin', () => {
     // the case this guards was exercised: left-out jobs were offered, and some found room
     expect(stepsWithLeftOut).toBeGreaterThan(40);
     expect(leftOutPlaced).toBeGreaterThan(0);
+  });
+});
+
+describe('an optional job left out', () => {
+  it('is offered only the routes the step changed, not an untouched one with room', () => {
+    // two farriers with room; the optional job is out, a ruin empties farrier 1's route only
+    const H = 3600;
+    const farrier = (id: string) => ({ id, startLocation: 0, endLocation: 0, shiftStartSec: 8 * H, shiftEndSec: 17 * H, breakSec: 0, breakWindow: null, normalWorkSec: 8 * H, maxOvertimeSec: 0, costPerDriveSec: 1, costPerMetre: 0.04, costPerOvertimeSec: 2, qualified: false, hasForge: true });
+    const p = createProblem({
+      locations: 3,
+      durationSec: [[0, 600, 900], [600, 0, 600], [900, 600, 0]],
+      distanceM: [[0, 9000, 13000], [9000, 0, 9000], [13000, 9000, 0]],
+      farriers: [farrier('f1'), farrier('f2')],
+      barns: [{ id: 'b1', location: 1, windows: [{ startSec: 7 * H, endSec: 18 * H }], setupSec: 300 }, { id: 'b2', location: 2, windows: [{ startSec: 7 * H, endSec: 18 * H }], setupSec: 300 }],
+      jobs: [
+        { id: 'planned', barnId: 'b1', durationSec: H },
+        { id: 'optional', barnId: 'b2', durationSec: H, optional: true, penalty: 1e9 },
+      ],
+    });
+    for (const regret of [false, true]) {
+      const s = new State(buildModel(p));
+      s.insert(0, 0, 0);
+      s.recomputeCost();
+      const c = s.clone();
+      c.removeMany([0]);
+      // the ruin touched farrier 1 only: the job goes back there or to farrier 2, and the optional
+      // job, however dear to leave out, is offered farrier 1's route (and whichever route took the job)
+      putBack(c, createRng(3), { ...DEFAULT_SISR, blinkRate: 0 }, [0], [1], regret);
+      expect(c.routeOf[1]).toBe(c.routeOf[0]);
+      // offered nothing the step changed, it stays out even with farrier 2 free
+      const d = s.clone();
+      d.touched.clear();
+      putBack(d, createRng(3), { ...DEFAULT_SISR, blinkRate: 0 }, [], [1], regret);
+      expect(d.routeOf[1]).toBe(-1);
+      expect(d.routes[1]).toEqual([]);
+    }
   });
 });
 
