@@ -4,11 +4,13 @@
  *
  * Two ways in. Started with a `problem` in workerData it solves that one problem (a one-off worker).
  * Started with `{ persistent: true }` it stays up and solves each `{ type: 'solve', runId, … }` message
- * in turn, so a warm worker (modules loaded, code compiled) is ready before the dispatcher asks.
+ * in turn, so a warm worker (modules loaded, code compiled and optimised by a short search on a
+ * made-up day) is ready before the dispatcher asks.
  */
 import { parentPort, workerData } from 'node:worker_threads';
 import { createProblem } from './problem';
 import { solve, type SolveOptions } from './solve';
+import { warmUpEngine } from './warm-up';
 
 interface SolveJob {
   problem: unknown;
@@ -34,6 +36,9 @@ function run(job: SolveJob, runId?: number): void {
 
 const data = workerData as (SolveJob & { persistent?: false }) | { persistent: true };
 if (data.persistent) {
+  // a warm worker also warms the engine's code (a short search on a made-up day) before its first
+  // plan; a plan asked for meanwhile waits in the message queue
+  warmUpEngine();
   parentPort!.on('message', (msg: SolveJob & { type: string; runId: number }) => {
     if (msg.type === 'solve') run(msg, msg.runId);
   });

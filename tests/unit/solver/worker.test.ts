@@ -4,6 +4,7 @@ import { bestOf, solve, type Progress, type SolveResult } from '../../../src/lib
 import { checkSolution } from '../../../src/lib/solver/checker';
 import type { Problem } from '../../../src/lib/solver/problem';
 import { randomProblem } from './helpers';
+import { warmUpEngine, warmUpProblem } from '../../../src/lib/solver/warm-up';
 
 const strip = (r: Awaited<ReturnType<typeof solveInWorker>>) => JSON.stringify({ ...r, statistics: { ...r.statistics, seconds: 0, firstFeasibleSeconds: 0 } });
 
@@ -21,6 +22,17 @@ describe('bestOf', () => {
   it('then the lower cost, and the earlier plan on a tie', () => {
     expect(bestOf(p, [plan(300, ['may'], 1), plan(200, ['may'], 2)]).statistics.seed).toBe(2);
     expect(bestOf(p, [plan(200, [], 1), plan(200, [], 2)]).statistics.seed).toBe(1);
+  });
+});
+
+describe('warming up a worker', () => {
+  it('searches a made-up day of the usual kind (breaks, overtime, optional jobs) whose plan the checker accepts', () => {
+    const p = warmUpProblem();
+    expect(p.jobs.some((j) => j.optional) && p.farriers.every((f) => f.breakSec > 0)).toBe(true);
+    expect(warmUpEngine(200)).toBe(200);
+    const r = solve(p, { seed: 1, stop: { maxIterations: 200 } });
+    expect(r.routes.filter((x) => x.stops.length).length).toBeGreaterThan(1);
+    expect(checkSolution(p, r, { complete: true }).feasible).toBe(true);
   });
 });
 
