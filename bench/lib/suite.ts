@@ -2,9 +2,9 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import os from 'node:os';
 import { checkSolution } from '../../src/lib/solver/checker';
-import { solve } from '../../src/lib/solver/solve';
+import { mandatoryLeftOut, solve } from '../../src/lib/solver/solve';
 import { solveInWorker } from '../../src/lib/solver/worker';
-import { farrierDay } from './farrier-day';
+import { farrierDay } from '../../src/lib/solver/invented-day';
 import { runSolomon, runTsplib } from './runs';
 
 function csv(path: string): Record<string, string>[] {
@@ -30,9 +30,7 @@ export async function runFarrierDay(seed: number, shortSeconds: number, referenc
     const r = await solveInWorker(day, { seed, stop: { ...limit, ...(noStall ? { noImprovementIterations: Infinity } : {}) } }, { searches });
     const c = checkSolution(day, r, { complete: true, compareTimes: true });
     const planned = r.routes.reduce((a, x) => a + x.stops.reduce((b, s) => b + s.jobIds.length, 0), 0);
-    // the cost leaves out mandatory jobs the plan could not take (they are listed, not priced), so
-    // two plans compare by cost only when they leave the same number of them out
-    const mandatoryOut = r.unplanned.filter((u) => !day.jobs.find((j) => j.id === u.jobId)!.optional).length;
+    const mandatoryOut = mandatoryLeftOut(day, r);
     const line = `${pad(label, 22)} stop ${r.statistics.stopReason}, cost ${(r.cost / 100).toFixed(2)} (checker ${(c.costs.totalCents / 100).toFixed(2)}), first plan ${(r.statistics.firstFeasibleSeconds * 1000).toFixed(0)} ms, ${planned} jobs planned, ${r.unplanned.length} unplanned (${mandatoryOut} mandatory), ${r.statistics.iterations} iterations in ${r.statistics.searches ?? 1} search(es), ${r.statistics.seconds.toFixed(1)} s, ${c.feasible ? 'checked feasible' : 'FAIL ' + c.violations[0]?.message}`;
     return { r, line, feasible: c.feasible, mandatoryOut };
   };

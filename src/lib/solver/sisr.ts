@@ -143,17 +143,20 @@ export function recreate(s: State, rng: Rng, p: SisrParams, allowed?: Uint8Array
 /**
  * The recreate half of a search step: the jobs the ruin removed go back first (regret-2 or greedy
  * insertion), together with any mandatory job still left out, and the optional left-out candidates
- * only fill the room that remains. Mixed into one pass, a
- * job left out for long often took the place a removed job had and pushed that one out in turn; on
- * days with optional jobs most steps then ended in a worse plan, and the search found the better
- * plans that leave other jobs out far later (figures in docs/solver.md).
+ * only fill the room that remains. Mixed into one pass, a job left out for long often took the
+ * place a removed job had and pushed that one out in turn; on days with optional jobs most steps
+ * then ended in a worse plan, and the search found the better plans that leave other jobs out far
+ * later (figures in docs/solver.md).
  */
 export function putBack(s: State, rng: Rng, p: SisrParams, removed: number[], leftOut: number[], regret: boolean): void {
+  const place = (jobs: number[], allowed?: Uint8Array) => {
+    if (regret) regretRecreate(s, rng, p, jobs, allowed);
+    else recreate(s, rng, p, allowed, jobs);
+  };
   // a mandatory job left out (no room for it yet) goes back with the removed jobs: room is its first
   const first = removed.slice(), rest: number[] = [];
   for (const j of leftOut) (s.m.mandatory[j] ? first : rest).push(j);
-  if (regret) regretRecreate(s, rng, p, first);
-  else recreate(s, rng, p, undefined, first);
+  place(first);
   if (!rest.length) return;
   // an optional job left out is offered only the routes this step changed: each other route it was
   // offered, as a rule, in the step that last changed it (or when the job itself went out), and it
@@ -161,8 +164,7 @@ export function putBack(s: State, rng: Rng, p: SisrParams, removed: number[], le
   // per iteration)
   const changed = new Uint8Array(s.m.nFarriers);
   for (const f of s.touched) changed[f] = 1;
-  if (regret) regretRecreate(s, rng, p, rest, changed);
-  else recreate(s, rng, p, changed, rest);
+  place(rest, changed);
 }
 
 /**

@@ -251,15 +251,22 @@ function fleetPhase(
 }
 
 /**
- * The better of several plans for one problem: fewest mandatory jobs left out (their cost is listed,
- * not priced), then lowest cost; ties go to the earlier plan. Used to pick among side-by-side searches.
+ * How many mandatory jobs a plan leaves out. Its cost lists them but does not price them, so two
+ * plans compare by cost only when they leave the same number out.
+ */
+export function mandatoryLeftOut(problem: Problem, result: SolveResult): number {
+  const optional = new Set(problem.jobs.filter((j) => j.optional).map((j) => j.id));
+  return result.unplanned.filter((u) => !optional.has(u.jobId)).length;
+}
+
+/**
+ * The better of several plans for one problem: fewest mandatory jobs left out, then lowest cost;
+ * ties go to the earlier plan. Used to pick among side-by-side searches.
  */
 export function bestOf(problem: Problem, results: SolveResult[]): SolveResult {
-  const optional = new Set(problem.jobs.filter((j) => j.optional).map((j) => j.id));
-  const mandatoryOut = (r: SolveResult) => r.unplanned.filter((u) => !optional.has(u.jobId)).length;
   let best = results[0];
   for (const r of results.slice(1)) {
-    const d = mandatoryOut(r) - mandatoryOut(best);
+    const d = mandatoryLeftOut(problem, r) - mandatoryLeftOut(problem, best);
     if (d < 0 || (d === 0 && r.cost < best.cost)) best = r;
   }
   return best;

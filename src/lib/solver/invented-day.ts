@@ -1,8 +1,8 @@
-import { createProblem, type Problem, type ProblemInput } from '../../src/lib/solver/problem';
-import { createRng } from '../../src/lib/solver/random';
+import { createProblem, type Problem, type ProblemInput } from './problem';
+import { createRng } from './random';
 
 /**
- * Invented farrier days for the benchmark: homes and barns scattered over a square of countryside,
+ * Invented farrier days for the benchmark and the engine's warm-up: homes and barns scattered over a square of countryside,
  * road seconds from straight-line distance × 1.3 circuity at about 45 mph with a little asymmetry,
  * mixed work (trims, shoes, hot fits needing a forge, therapeutic work needing a qualified farrier),
  * a few owner windows and pins. Minutes per job follow common practice (no source); all data is
