@@ -7,7 +7,8 @@
  */
 import { useState } from 'react';
 import type { DayLogView } from '../../lib/day-sheet/day-logs';
-import { odometerProblem, unitLabel, MAX_DAY_ODOMETER_UNITS } from '../../lib/day-sheet/odometer';
+import { odometerProblem, MAX_DAY_ODOMETER_UNITS } from '../../lib/day-sheet/odometer';
+import { unitLabel } from '../../lib/review/mileage';
 import { dayView } from '../../lib/day-sheet/day-view';
 import { odometerReading } from '../../schemas/day-logs';
 import type { QueuedDayMark } from './mark-queue';

@@ -10,6 +10,7 @@ import { api, ApiError } from '../../lib/client/api.ts';
 import type { Move, PlanProgressView, PlanView } from '../../schemas/plans.ts';
 import type { MapBarn, MapHome } from '../map/map-layers.ts';
 import { previewMoves } from '../../lib/dispatch/preview.ts';
+import { unitLabel } from '../../lib/review/mileage.ts';
 import Board from './Board.tsx';
 
 // Memoised: the screen re-renders as drags start and end and as requests come and go; the map should
@@ -245,7 +246,7 @@ function Screen({ initialDate, today, barns, homes, units, initialPlan }: Dispat
           <Figure label="Horses" value={String(view.figures.horses)} />
           <Figure label="Stops" value={String(view.figures.stops)} />
           <Figure label="Driving" value={`${Math.floor(view.figures.driveMinutes / 60)} h ${String(view.figures.driveMinutes % 60).padStart(2, '0')}`} />
-          <Figure label="Distance" value={`${view.figures.distance.toFixed(1)} ${units === 'miles' ? 'mi' : 'km'}`} />
+          <Figure label="Distance" value={`${view.figures.distance.toFixed(1)} ${unitLabel(units)}`} />
           <Figure label="Overtime" value={`${view.figures.overtimeMinutes} min`} />
           <Figure label="Unplanned" value={String(view.unplanned.length)} />
           {move.data?.retimeMs !== undefined && <Figure label="Last re-time" value={`${move.data.retimeMs} ms`} />}

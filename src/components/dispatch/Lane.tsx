@@ -8,7 +8,8 @@ import { useDroppable } from '@dnd-kit/core';
 import { SortableContext, verticalListSortingStrategy } from '@dnd-kit/sortable';
 import { defaultRangeExtractor, useVirtualizer, type Range, type VirtualItem } from '@tanstack/react-virtual';
 import type { Move, PlanRouteView } from '../../schemas/plans.ts';
-import { clock, hm, unitWord } from './format.ts';
+import { clock, hm } from './format.ts';
+import { unitLabel } from '../../lib/review/mileage.ts';
 import { StopCard } from './StopCard.tsx';
 import { useWindowSpan, type DragWatch, type WindowSpan } from './window-span.ts';
 
@@ -125,7 +126,7 @@ export const Lane = memo(function Lane({ route, units, selectedBarnId, activeSto
         <dl className={`mt-1 grid grid-cols-3 gap-x-2 gap-y-0.5 text-[11px] text-slateblue-600 ${retiming ? 'opacity-50' : ''}`} data-testid="lane-figures">
           <div><dt className="sr-only">Day</dt><dd className="figure text-slateblue-900">{clock(route.start)}–{clock(route.end)}</dd></div>
           <div><dt className="sr-only">Drive</dt><dd className="figure">{hm(route.driveMinutes)} drive</dd></div>
-          <div><dt className="sr-only">Distance</dt><dd className="figure">{route.distance.toFixed(1)} {unitWord(units)}</dd></div>
+          <div><dt className="sr-only">Distance</dt><dd className="figure">{route.distance.toFixed(1)} {unitLabel(units)}</dd></div>
           <div><dt className="sr-only">Horses</dt><dd className="figure">{route.horses} horses</dd></div>
           <div><dt className="sr-only">Stops</dt><dd className="figure">{route.stops.length} stops</dd></div>
           <div><dt className="sr-only">Overtime</dt><dd className={`figure ${route.overtimeMinutes > 0 ? 'font-semibold text-ember-700' : ''}`}>{route.overtimeMinutes > 0 ? `+${route.overtimeMinutes} min OT` : 'no OT'}</dd></div>

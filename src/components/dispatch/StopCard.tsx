@@ -6,7 +6,8 @@ import { memo } from 'react';
 import { useSortable } from '@dnd-kit/sortable';
 import { CSS } from '@dnd-kit/utilities';
 import type { Move, PlanJobView, PlanStopView } from '../../schemas/plans.ts';
-import { clock, unitWord } from './format.ts';
+import { clock } from './format.ts';
+import { unitLabel } from '../../lib/review/mileage.ts';
 
 /**
  * A stop's card: a thin sortable shell (it re-renders whenever dnd-kit's drag state changes, which is
@@ -57,7 +58,7 @@ const StopBody = memo(function StopBody({ stop, farrierId, units, onMoves }: { s
     <>
       <div className="flex items-baseline justify-between gap-2">
         <span className="figure text-base font-medium text-slateblue-900">{clock(stop.arrival)}</span>
-        <span className="figure text-[11px] text-slateblue-500" title="Drive into this stop">{stop.legDriveMinutes} min · {stop.legDistance.toFixed(1)} {unitWord(units)}</span>
+        <span className="figure text-[11px] text-slateblue-500" title="Drive into this stop">{stop.legDriveMinutes} min · {stop.legDistance.toFixed(1)} {unitLabel(units)}</span>
       </div>
       <p className="truncate font-semibold">{stop.barnName}</p>
       {stop.progress && <StopProgress progress={stop.progress} />}

@@ -4,5 +4,3 @@
 export const clock = (iso: string) => iso.slice(11, 16);
 /** Minutes as "45 min" or "1 h 05". */
 export const hm = (minutes: number) => (minutes < 60 ? `${minutes} min` : `${Math.floor(minutes / 60)} h ${String(minutes % 60).padStart(2, '0')}`);
-/** The short word for the practice's distance unit. */
-export const unitWord = (units: 'miles' | 'km') => (units === 'miles' ? 'mi' : 'km');

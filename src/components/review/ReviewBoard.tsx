@@ -8,6 +8,7 @@ import { api } from '../../lib/client/api.ts';
 import type { ReviewResult } from '../../lib/review/compute.ts';
 import { REVIEW_COLUMNS, columnHeading, displayFigure, formatMinutes } from '../../lib/review/table.ts';
 import { addDays, monthOf, weekOf } from '../../lib/review/time.ts';
+import { unitLabel } from '../../lib/review/mileage.ts';
 
 export type ReviewMode = 'week' | 'month';
 
@@ -98,7 +99,7 @@ function ruleText(data: ReviewResult): string {
 }
 
 function ReviewBody({ data, mode, farrierId, onFarrier }: { data: ReviewResult; mode: ReviewMode; farrierId: number | null; onFarrier: (id: number | null) => void }) {
-  const unit = data.units === 'miles' ? 'mi' : 'km';
+  const unit = unitLabel(data.units);
   const money = (v: number) => new Intl.NumberFormat('en-US', { style: 'currency', currency: data.currency }).format(v);
   const t = data.totals;
   useEffect(() => {
@@ -279,7 +280,7 @@ function Tile({ label, value, note }: { label: string; value: string; note: stri
 
 function FarrierDays({ data, farrierId, onClose }: { data: ReviewResult; farrierId: number; onClose: () => void }) {
   const f = data.farriers.find((x) => x.farrierId === farrierId)!;
-  const unit = data.units === 'miles' ? 'mi' : 'km';
+  const unit = unitLabel(data.units);
   const days = data.days.map((d) => ({ date: d.date, row: d.farriers.find((x) => x.farrierId === farrierId) })).filter((d) => d.row);
   return (
     <section className="card overflow-x-auto" aria-label={`Days of ${f.name}`} data-testid="farrier-days">

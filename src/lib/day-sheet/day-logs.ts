@@ -12,7 +12,8 @@ import type { Knex } from 'knex';
 import { audit } from '../db/audit.ts';
 import { HttpError } from '../server/http.ts';
 import type { Units } from '../review/mileage.ts';
-import { odometerDistanceM, odometerProblem, unitLabel, MAX_DAY_ODOMETER_UNITS } from './odometer.ts';
+import { odometerDistanceM, odometerProblem, MAX_DAY_ODOMETER_UNITS } from './odometer.ts';
+import { unitLabel } from '../review/mileage.ts';
 import type { MarkActor } from './visits.ts';
 
 /** A day log as the API and the day sheet show it. */

@@ -31,8 +31,3 @@ export function odometerProblem(startReading: number | null | undefined, endRead
   if (endReading - startReading > MAX_DAY_ODOMETER_UNITS) return 'too_far';
   return null;
 }
-
-/** The unit's short name as the sheet and messages show it. */
-export function unitLabel(units: Units): 'mi' | 'km' {
-  return units === 'miles' ? 'mi' : 'km';
-}

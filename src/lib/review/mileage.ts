@@ -9,6 +9,11 @@ export const METRES_PER_MILE = 1609.344;
 
 export type Units = 'miles' | 'km';
 
+/** The unit's short name, as every screen, sheet and message shows it. */
+export function unitLabel(units: Units): 'mi' | 'km' {
+  return units === 'miles' ? 'mi' : 'km';
+}
+
 /** Metres in one unit of the practice's distance. */
 export function metresPerUnit(units: Units): number {
   return units === 'miles' ? METRES_PER_MILE : 1000;

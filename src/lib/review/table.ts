@@ -1,4 +1,5 @@
 import type { ReviewFigures, ReviewResult } from './compute.ts';
+import { unitLabel } from './mileage.ts';
 
 /**
  * The review table's columns, shared by the page and the CSV export so both show the same figures
@@ -67,7 +68,7 @@ export function displayFigure(column: ReviewColumn, value: number, currency: str
 /** A column heading with its unit, as the CSV and the page's header title show it. */
 export function columnHeading(column: ReviewColumn, result: Pick<ReviewResult, 'units' | 'currency'>): string {
   if (column.kind === 'minutes') return `${column.label} (h:mm)`;
-  if (column.kind === 'distance') return `${column.label} (${result.units === 'miles' ? 'mi' : 'km'})`;
+  if (column.kind === 'distance') return `${column.label} (${unitLabel(result.units)})`;
   if (column.kind === 'money') return `${column.label} (${result.currency})`;
   return column.label;
 }
