@@ -6,7 +6,7 @@ import { materialize, type State } from './state';
  * pure (returns the exact cost change, Infinity when a hard rule breaks) and `apply()` commits it.
  * Moves are built around a job `u` and one of its near neighbours `v` (granular neighbourhoods).
  */
-export type MoveKind = 'relocate' | 'swap' | 'two-opt-star' | 'or-opt' | 'cross-exchange' | 'two-opt' | 'insert-unplanned' | 'exchange-unplanned';
+export type MoveKind = 'relocate' | 'swap' | 'two-opt-star' | 'or-opt' | 'cross-exchange' | 'two-opt' | 'insert-unplanned' | 'exchange-unplanned' | 'exchange-days';
 
 /**
  * A local-search move: the routes it rewrites and the jobs it brings into or out of the plan. Each
@@ -146,6 +146,23 @@ export function movesToEmpty(s: State, u: number): Move[] {
 }
 
 /**
+ * Whole days traded between two farriers (each may also be driven in reverse): farriers differ in
+ * home, skills and forge, so an area can end up with the farrier who lives farther from it, and
+ * moving it job by job passes through worse plans.
+ */
+export function movesBetweenDays(s: State, A: number, B: number): Move[] {
+  const nA = s.routes[A].length, nB = s.routes[B].length;
+  if (nA + nB === 0) return [];
+  const out: Move[] = [];
+  for (let ra = 0; ra <= (nA > 1 ? 1 : 0); ra++) {
+    for (let rb = 0; rb <= (nB > 1 ? 1 : 0); rb++) {
+      out.push(new Move('exchange-days', [{ f: A, pieces: R(B, 0, nB, rb) }, { f: B, pieces: R(A, 0, nA, ra) }]));
+    }
+  }
+  return out;
+}
+
+/**
  * First-improvement descent over the moves above with granular neighbourhoods (nearest `k` jobs);
  * `focus` limits it to the jobs of the given routes (the routes the last search step changed).
  * Never accepts a move that does not lower the cost, so it cannot worsen a plan.
@@ -173,6 +190,18 @@ export function localSearch(s: State, rng: Rng, k = 15, maxPasses = 50, focus?: 
       if (!done && !m.fleetObjective) {
         for (const mv of movesToEmpty(s, u)) {
           if (mv.evaluate(s) < -eps) { mv.apply(s); applied++; improved = true; break; }
+        }
+      }
+    }
+    // whole days traded between farriers (the benchmark fleets' farriers are interchangeable)
+    if (!m.fleetObjective) {
+      const F = m.nFarriers;
+      for (let A = 0; A < F; A++) {
+        for (let B = A + 1; B < F; B++) {
+          if (focus && !focus.has(A) && !focus.has(B)) continue;
+          for (const mv of movesBetweenDays(s, A, B)) {
+            if (mv.evaluate(s) < -eps) { mv.apply(s); applied++; improved = true; break; }
+          }
         }
       }
     }

@@ -1,11 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { buildModel } from '../../../src/lib/solver/model';
-import { localSearch, movesAround, movesToEmpty, unplannedMoves, type MoveKind } from '../../../src/lib/solver/moves';
+import { localSearch, movesAround, movesBetweenDays, movesToEmpty, unplannedMoves, type MoveKind } from '../../../src/lib/solver/moves';
 import { createRng } from '../../../src/lib/solver/random';
 import { regretConstruct } from '../../../src/lib/solver/sisr';
 import { State } from '../../../src/lib/solver/state';
 import { checkSolution } from '../../../src/lib/solver/checker';
-import type { Problem } from '../../../src/lib/solver/problem';
+import { createProblem, type Problem } from '../../../src/lib/solver/problem';
 import { bestRoutes, leaveOut, randomProblem } from './helpers';
 
 /** The state as plain routes, costed by the independent checker. */
@@ -32,7 +32,9 @@ describe('local-search moves', () => {
         if (u === v) continue;
         const out = [...s.unassigned];
         const w = out.length ? out[rng.int(out.length)] : -1;
-        for (const mv of [...movesAround(s, u, v), ...movesToEmpty(s, u), ...(w >= 0 ? unplannedMoves(s, w, v) : [])]) {
+        const A = s.routeOf[u], B = s.routeOf[v];
+        const days = A !== B ? movesBetweenDays(s, A, B) : [];
+        for (const mv of [...movesAround(s, u, v), ...movesToEmpty(s, u), ...(w >= 0 ? unplannedMoves(s, w, v) : []), ...days]) {
           const d = mv.evaluate(s);
           const after = s.clone();
           mv.apply(after);
@@ -53,7 +55,7 @@ describe('local-search moves', () => {
       }
     }
     // every kind of move was exercised with a feasible outcome, and infeasible outcomes were met too
-    for (const k of ['relocate', 'swap', 'two-opt-star', 'or-opt', 'cross-exchange', 'two-opt', 'insert-unplanned', 'exchange-unplanned'] as MoveKind[]) expect(seen.get(k) ?? 0).toBeGreaterThan(0);
+    for (const k of ['relocate', 'swap', 'two-opt-star', 'or-opt', 'cross-exchange', 'two-opt', 'insert-unplanned', 'exchange-unplanned', 'exchange-days'] as MoveKind[]) expect(seen.get(k) ?? 0).toBeGreaterThan(0);
     expect(infeasible).toBeGreaterThan(0);
   });
 
@@ -80,6 +82,41 @@ describe('local-search moves', () => {
       tested++;
     }
     expect(tested).toBe(3);
+  });
+
+  it('trades whole days when each farrier was given the area nearer the other’s home', () => {
+    // two homes 40 min apart, a barn beside each, four 90-min jobs at each barn; no overtime allowed,
+    // so neither farrier can take a fifth job, and any one-job or three-job trade still sends both
+    // across the map: only trading the whole days lowers the cost
+    const far = 2400, near = 120;
+    const sec = [
+      [0, far, near, far], // home west
+      [far, 0, far, near], // home east
+      [near, far, 0, far], // west barn
+      [far, near, far, 0], // east barn
+    ];
+    const H = 3600;
+    const farrier = (id: string, home: number) => ({
+      id, startLocation: home, endLocation: home, shiftStartSec: 7 * H, shiftEndSec: 17 * H, breakSec: 0, breakWindow: null,
+      normalWorkSec: 8 * H, maxOvertimeSec: 0, costPerDriveSec: 1, costPerMetre: 0.04, costPerOvertimeSec: 2, qualified: false, hasForge: true,
+    });
+    const p = createProblem({
+      locations: 4, durationSec: sec, distanceM: sec.map((r) => r.map((t) => t * 20)),
+      farriers: [farrier('west', 0), farrier('east', 1)],
+      barns: [{ id: 'wb', location: 2, windows: [{ startSec: 7 * H, endSec: 18 * H }], setupSec: 600 }, { id: 'eb', location: 3, windows: [{ startSec: 7 * H, endSec: 18 * H }], setupSec: 600 }],
+      jobs: Array.from({ length: 8 }, (_, j) => ({ id: `j${j + 1}`, barnId: j < 4 ? 'wb' : 'eb', durationSec: 5400, needsQualified: false, needsForge: false, priority: 1, optional: false, penalty: 0 })),
+    });
+    const s = new State(buildModel(p));
+    s.routes[0] = [4, 5, 6, 7]; // the west farrier at the east barn
+    s.routes[1] = [0, 1, 2, 3];
+    s.refreshAll();
+    expect(checked(p, s).feasible).toBe(true);
+    const crossed = s.cost;
+    localSearch(s, createRng(5));
+    expect(s.routes[0].slice().sort()).toEqual([0, 1, 2, 3]);
+    expect(s.routes[1].slice().sort()).toEqual([4, 5, 6, 7]);
+    expect(s.cost).toBeLessThan(crossed);
+    expect(checked(p, s).feasible).toBe(true);
   });
 
   it('never raises the cost of a plan it starts from', () => {
