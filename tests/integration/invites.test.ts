@@ -12,7 +12,7 @@ async function mailTo(address: string): Promise<{ subject: string; text: string 
 }
 
 describe('the lead invites people by e-mail', () => {
-  it('sends a one-time link through SMTP to the local fake; the link sets a password once', async () => {
+  it('sends a one-time link through SMTP to the local fake; the link sets a password once; the lead then changes the account', async () => {
     const lead = await sessionCookie('lead@demo.test');
     const email = `new-dispatcher-${Date.now()}@demo.test`;
     const created = await call('POST', '/api/invites', { cookie: lead, body: { email, name: 'Posy Fernleigh', role: 'dispatcher' } });
@@ -38,6 +38,16 @@ describe('the lead invites people by e-mail', () => {
     expect(me.body.practice.id).toBe(1);
     const log = await db('messages').where({ channel: 'email', to_address: email }).first();
     expect(log.state).toBe('sent');
+
+    // A spent link's page says so instead of offering the form again.
+    expect((await call('GET', `/invite/${token}`)).status).toBe(404);
+    // The lead changes the new account's role, then deactivates it, which ends its sessions at once.
+    const promoted = await call('PATCH', `/api/users/${me.body.user.id}`, { cookie: lead, body: { role: 'lead' } });
+    expect(promoted.status).toBe(200);
+    expect(promoted.body.user).toMatchObject({ id: me.body.user.id, role: 'lead', active: true });
+    const off = await call('PATCH', `/api/users/${me.body.user.id}`, { cookie: lead, body: { active: false } });
+    expect(off.body.user).toMatchObject({ role: 'lead', active: false });
+    expect((await call('GET', '/api/me', { cookie: session })).status).toBe(401);
   });
 
   it('refuses an address that already has an account with 409', async () => {

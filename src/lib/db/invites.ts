@@ -58,14 +58,19 @@ export async function insertInvite(
   return Number(id);
 }
 
+/** Invites for a token hash that are still open: not accepted and not expired. */
+const openInvites = (db: Knex | Knex.Transaction, tokenHash: string) =>
+  db<InviteRow>('invites').where({ token_hash: tokenHash }).whereNull('accepted_at').andWhere('expires_at', '>', db.fn.now());
+
+/** The name on an open invite, for the page where its holder sets a password; null when the link is spent or expired. */
+export async function openInviteName(db: Knex, tokenHash: string): Promise<string | null> {
+  const row = await openInvites(db, tokenHash).first('name');
+  return row?.name ?? null;
+}
+
 /** The open invite for a token hash (not accepted, not expired), locked for update inside `trx`. */
 export async function openInviteForUpdate(trx: Knex.Transaction, tokenHash: string) {
-  const row = await trx<InviteRow>('invites')
-    .where({ token_hash: tokenHash })
-    .whereNull('accepted_at')
-    .andWhere('expires_at', '>', trx.fn.now())
-    .forUpdate()
-    .first();
+  const row = await openInvites(trx, tokenHash).forUpdate().first();
   return row ? { ...fromRow(row), practiceId: row.practice_id } : null;
 }
 

@@ -61,6 +61,11 @@ function fromRow(r: PracticeRow): Practice {
   };
 }
 
+/** Locks the practice's row for the rest of `trx`: serialises whole-practice writes such as an import. */
+export async function lockPractice(trx: Knex.Transaction, practiceId: number): Promise<void> {
+  await trx('practices').where({ id: practiceId }).forUpdate().first('id');
+}
+
 export async function getPractice(db: Knex, practiceId: number): Promise<Practice | null> {
   const row = await db<PracticeRow>('practices').where({ id: practiceId }).first();
   return row ? fromRow(row) : null;

@@ -43,6 +43,15 @@ export async function findUserByEmail(db: Knex, email: string): Promise<UserReco
   return row ? fromRow(row) : null;
 }
 
+/** The lead's change to an account; deactivating it also ends its sessions. Call inside the transaction that locked the row. */
+export async function updateUserAccount(trx: Knex.Transaction, id: number, change: { role?: Role; active?: boolean }): Promise<void> {
+  const row: Record<string, unknown> = { updated_at: trx.fn.now(3) };
+  if (change.role) row.role = change.role;
+  if (change.active !== undefined) row.active = change.active;
+  await trx('users').where({ id }).update(row);
+  if (change.active === false) await trx('user_sessions').where({ user_id: id }).delete();
+}
+
 export async function listUsers(db: Knex, practiceId: number): Promise<Omit<UserRecord, 'passwordHash'>[]> {
   const rows = await db<UserRow>('users').where({ practice_id: practiceId }).orderBy([{ column: 'role' }, { column: 'name' }]);
   return rows.map(fromRow).map(({ passwordHash: _omit, ...u }) => u);

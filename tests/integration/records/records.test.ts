@@ -125,6 +125,19 @@ describe('deleting and archiving', () => {
     expect(r.body.error.message).toMatch(/recorded visit/);
   });
 
+  it('refuses to delete a horse with recorded visits and a farrier with a linked account, and keeps both', async () => {
+    const visited = await db('visit_log_horses').join('horses', 'horses.id', 'visit_log_horses.horse_id').where('horses.practice_id', 1).first('horse_id');
+    const horse = await call('DELETE', `/api/horses/${visited.horse_id}`, { cookie: dispatcher });
+    expect(horse.status).toBe(409);
+    expect(horse.body.error.message).toMatch(/recorded visit/);
+    expect(await db('horses').where({ id: visited.horse_id }).first('id')).toBeDefined();
+    const linked = await db('users').where({ practice_id: 1 }).whereNotNull('farrier_id').first('farrier_id');
+    const lead = await sessionCookie('lead@demo.test');
+    const farrier = await call('DELETE', `/api/farriers/${linked.farrier_id}`, { cookie: lead });
+    expect(farrier.status).toBe(409);
+    expect(await db('farriers').where({ id: linked.farrier_id }).first('id')).toBeDefined();
+  });
+
   it('deletes an unused owner, and archiving hides one from the list but keeps it', async () => {
     const a = await call('POST', '/api/owners', { cookie: dispatcher, body: { name: `Unused ${tag}` } });
     expect((await call('DELETE', `/api/owners/${a.body.owner.id}`, { cookie: dispatcher })).status).toBe(200);
@@ -210,6 +223,10 @@ describe('the due list and job creation', () => {
     expect(due.body.counts.overdue).toBe(2);
     const cancelled = await call('POST', `/api/jobs/${first.body.jobIds[0]}/cancel`, { cookie: dispatcher, body: { reason: 'Horse sold' } });
     expect(cancelled.status).toBe(200);
+    // A cancelled job is no longer due, so a second cancel is refused and names its state.
+    const twice = await call('POST', `/api/jobs/${first.body.jobIds[0]}/cancel`, { cookie: dispatcher, body: { reason: 'Again' } });
+    expect(twice.status).toBe(409);
+    expect(twice.body.error.message).toMatch(/cancelled/);
     expect((await call('POST', '/api/jobs', { cookie: dispatcher, body: { horseId: horse.id } })).status).toBe(201);
   });
 

@@ -3,6 +3,7 @@ import { readBody } from '../../../lib/records/read.ts';
 import { badRequest, conflict, idParam, json, notFound } from '../../../lib/server/http.ts';
 import { db } from '../../../lib/server/db.ts';
 import { audit } from '../../../lib/db/audit.ts';
+import { lockInPractice } from '../../../lib/db/records-lock.ts';
 import { barnInUse, deleteBarn, getBarn, ownerBelongs, updateBarn } from '../../../lib/db/barns.ts';
 import { barnPatchSchema } from '../../../schemas/barns.ts';
 
@@ -28,7 +29,7 @@ export const PATCH = route('dispatcher', async (ctx, user) => {
 export const DELETE = route('dispatcher', async (ctx, user) => {
   const id = idParam(ctx.params.id, 'Barn');
   await db().transaction(async (trx) => {
-    const barn = await trx('barns').where({ practice_id: user.practiceId, id }).forUpdate().first('id', 'name');
+    const barn = await lockInPractice(trx, 'barns', user.practiceId, id, ['name']);
     if (!barn) throw notFound('Barn');
     const reason = await barnInUse(trx, id);
     if (reason) throw conflict(reason);

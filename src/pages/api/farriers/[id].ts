@@ -3,6 +3,7 @@ import { readBody } from '../../../lib/records/read.ts';
 import { badRequest, conflict, idParam, json, notFound } from '../../../lib/server/http.ts';
 import { db } from '../../../lib/server/db.ts';
 import { audit } from '../../../lib/db/audit.ts';
+import { lockInPractice } from '../../../lib/db/records-lock.ts';
 import { deleteFarrierRecord, farrierInUse, getFarrierRecord, linkUser, updateFarrierRecord } from '../../../lib/db/farriers-records.ts';
 import { farrierPatchSchema } from '../../../schemas/farriers.ts';
 
@@ -38,7 +39,7 @@ export const PATCH = route('lead', async (ctx, user) => {
 export const DELETE = route('lead', async (ctx, user) => {
   const id = idParam(ctx.params.id, 'Farrier');
   await db().transaction(async (trx) => {
-    const row = await trx('farriers').where({ practice_id: user.practiceId, id }).forUpdate().first('id', 'name');
+    const row = await lockInPractice(trx, 'farriers', user.practiceId, id, ['name']);
     if (!row) throw notFound('Farrier');
     const reason = await farrierInUse(trx, id);
     if (reason) throw conflict(reason);

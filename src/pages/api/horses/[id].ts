@@ -3,6 +3,7 @@ import { readBody } from '../../../lib/records/read.ts';
 import { badRequest, conflict, idParam, json, notFound } from '../../../lib/server/http.ts';
 import { db } from '../../../lib/server/db.ts';
 import { audit } from '../../../lib/db/audit.ts';
+import { lockInPractice } from '../../../lib/db/records-lock.ts';
 import { deleteHorse, getHorse, horseInUse, horseReferenceErrors, openJobOf, updateHorse } from '../../../lib/db/horses.ts';
 import { horsePatchSchema } from '../../../schemas/horses.ts';
 
@@ -17,7 +18,7 @@ export const PATCH = route('dispatcher', async (ctx, user) => {
   const id = idParam(ctx.params.id, 'Horse');
   const patch = await readBody(ctx.request, horsePatchSchema);
   await db().transaction(async (trx) => {
-    if (!(await trx('horses').where({ practice_id: user.practiceId, id }).forUpdate().first('id'))) throw notFound('Horse');
+    if (!(await lockInPractice(trx, 'horses', user.practiceId, id, ['id']))) throw notFound('Horse');
     const errors = await horseReferenceErrors(trx, user.practiceId, patch);
     if (Object.keys(errors).length) throw badRequest(`Invalid body: check ${Object.keys(errors).join(', ')}`, errors);
     if (patch.archived === true) {
@@ -34,7 +35,7 @@ export const PATCH = route('dispatcher', async (ctx, user) => {
 export const DELETE = route('dispatcher', async (ctx, user) => {
   const id = idParam(ctx.params.id, 'Horse');
   await db().transaction(async (trx) => {
-    const horse = await trx('horses').where({ practice_id: user.practiceId, id }).forUpdate().first('id', 'name');
+    const horse = await lockInPractice(trx, 'horses', user.practiceId, id, ['name']);
     if (!horse) throw notFound('Horse');
     const reason = await horseInUse(trx, id);
     if (reason) throw conflict(reason);

@@ -4,6 +4,7 @@ import { HttpError, json } from '../../../lib/server/http.ts';
 import { db } from '../../../lib/server/db.ts';
 import { audit } from '../../../lib/db/audit.ts';
 import { loadImportContext, writeImport } from '../../../lib/db/import.ts';
+import { lockPractice } from '../../../lib/db/practices.ts';
 import { parseCsv, planImport } from '../../../lib/records/csv.ts';
 import { localDate } from '../../../lib/records/due.ts';
 import { importRequestSchema } from '../../../schemas/import.ts';
@@ -19,7 +20,7 @@ export const POST = route('dispatcher', async (ctx, user) => {
   const parsed = parseCsv(csv);
   const result = await db().transaction(async (trx) => {
     // Serialise imports of one practice: two at once could both see an owner as new.
-    await trx('practices').where({ id: user.practiceId }).forUpdate().first('id');
+    await lockPractice(trx, user.practiceId);
     const plan = planImport(parsed, mapping, await loadImportContext(trx, user.practiceId, today));
     if (plan.badRows.length > 0) {
       throw new HttpError(400, 'invalid_request', `${plan.badRows.length} of ${plan.rows} rows cannot be imported; nothing was changed`, { csv: `Fix line ${plan.badRows.map((b) => b.line).slice(0, 20).join(', ')} (see the preview)` });

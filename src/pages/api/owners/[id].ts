@@ -3,6 +3,7 @@ import { readBody } from '../../../lib/records/read.ts';
 import { conflict, idParam, json, notFound } from '../../../lib/server/http.ts';
 import { db } from '../../../lib/server/db.ts';
 import { audit } from '../../../lib/db/audit.ts';
+import { lockInPractice } from '../../../lib/db/records-lock.ts';
 import { deleteOwner, getOwner, ownerInUse, updateOwner } from '../../../lib/db/owners.ts';
 import { ownerPatchSchema } from '../../../schemas/owners.ts';
 
@@ -27,7 +28,7 @@ export const PATCH = route('dispatcher', async (ctx, user) => {
 export const DELETE = route('dispatcher', async (ctx, user) => {
   const id = idParam(ctx.params.id, 'Owner');
   await db().transaction(async (trx) => {
-    const owner = await trx('owners').where({ practice_id: user.practiceId, id }).forUpdate().first('id', 'name');
+    const owner = await lockInPractice(trx, 'owners', user.practiceId, id, ['name']);
     if (!owner) throw notFound('Owner');
     const reason = await ownerInUse(trx, id);
     if (reason) throw conflict(reason);

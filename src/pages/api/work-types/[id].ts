@@ -3,6 +3,7 @@ import { readBody } from '../../../lib/records/read.ts';
 import { conflict, idParam, json, notFound } from '../../../lib/server/http.ts';
 import { db } from '../../../lib/server/db.ts';
 import { audit } from '../../../lib/db/audit.ts';
+import { lockInPractice } from '../../../lib/db/records-lock.ts';
 import { deleteWorkType, getWorkType, updateWorkType, workTypeInUse } from '../../../lib/db/work-types.ts';
 import { workTypePatchSchema } from '../../../schemas/work-types.ts';
 
@@ -27,7 +28,7 @@ export const PATCH = route('dispatcher', async (ctx, user) => {
 export const DELETE = route('dispatcher', async (ctx, user) => {
   const id = idParam(ctx.params.id, 'Work type');
   await db().transaction(async (trx) => {
-    const row = await trx('work_types').where({ practice_id: user.practiceId, id }).forUpdate().first('id', 'name');
+    const row = await lockInPractice(trx, 'work_types', user.practiceId, id, ['name']);
     if (!row) throw notFound('Work type');
     const reason = await workTypeInUse(trx, id);
     if (reason) throw conflict(reason);

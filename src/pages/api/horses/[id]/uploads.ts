@@ -3,6 +3,7 @@ import { route } from '../../../../lib/server/route.ts';
 import { badRequest, HttpError, idParam, json, notFound } from '../../../../lib/server/http.ts';
 import { db } from '../../../../lib/server/db.ts';
 import { audit } from '../../../../lib/db/audit.ts';
+import { existsInPractice } from '../../../../lib/db/records-lock.ts';
 import { getUpload, insertUpload, listUploads } from '../../../../lib/db/uploads.ts';
 import { detectAcceptedType, isImage, MAX_UPLOAD_BYTES } from '../../../../lib/records/file-check.ts';
 import { makeThumbnail } from '../../../../lib/records/thumbnail.ts';
@@ -11,7 +12,7 @@ import { uploadKind } from '../../../../schemas/horses.ts';
 
 async function horseOf(practiceId: number, raw: string | undefined): Promise<number> {
   const id = idParam(raw, 'Horse');
-  if (!(await db()('horses').where({ practice_id: practiceId, id }).first('id'))) throw notFound('Horse');
+  if (!(await existsInPractice(db(), 'horses', practiceId, id))) throw notFound('Horse');
   return id;
 }
 

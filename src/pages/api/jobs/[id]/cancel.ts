@@ -3,6 +3,7 @@ import { readBody } from '../../../../lib/records/read.ts';
 import { conflict, idParam, json, notFound } from '../../../../lib/server/http.ts';
 import { db } from '../../../../lib/server/db.ts';
 import { audit } from '../../../../lib/db/audit.ts';
+import { lockInPractice } from '../../../../lib/db/records-lock.ts';
 import { cancelJob, getJob } from '../../../../lib/db/jobs-due.ts';
 import { jobCancelSchema } from '../../../../schemas/jobs.ts';
 
@@ -11,7 +12,7 @@ export const POST = route('dispatcher', async (ctx, user) => {
   const id = idParam(ctx.params.id, 'Job');
   const { reason } = await readBody(ctx.request, jobCancelSchema);
   await db().transaction(async (trx) => {
-    const job = await trx('jobs').where({ practice_id: user.practiceId, id }).forUpdate().first('id', 'state');
+    const job = await lockInPractice(trx, 'jobs', user.practiceId, id, ['state']);
     if (!job) throw notFound('Job');
     if (job.state !== 'due') throw conflict(`This job is ${job.state.replace('_', ' ')}; only a job that is still due can be cancelled here`);
     await cancelJob(trx, user.practiceId, id);
