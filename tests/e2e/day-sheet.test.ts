@@ -85,6 +85,36 @@ describe('the day sheet in a browser', () => {
       await page.waitForFunction(() => document.querySelector('[data-testid="sync-status"]')?.textContent?.includes('1 mark waiting'));
       await screenshot(page, 'day-sheet-phone-offline');
       expect(await knex('visit_logs').where({ stop_id: day.stopIds[1] })).toHaveLength(0);
+
+      // Still in the dead spot, the page is reloaded (a closed tab, a phone that dropped it): the copy
+      // the phone kept opens, showing the mark the server confirmed and the one still waiting.
+      await page.waitForFunction(async (id) => {
+        const kept = await (await caches.open('roundsmith-day-pages-v1')).match(location.href);
+        return !!kept && new RegExp(`data-stop-id="${id}" data-state="done"`).test(await kept.text());
+      }, day.stopIds[0]);
+      // A change on the server that the phone cannot have seen shows the page did not come from it.
+      const farrierName = (await knex('farriers').where({ id: day.farrierId }).first('name')).name;
+      await knex('farriers').where({ id: day.farrierId }).update({ name: 'Renamed While Offline' });
+      const reopened = await page.reload().finally(() => knex('farriers').where({ id: day.farrierId }).update({ name: farrierName }));
+      expect(reopened?.fromServiceWorker()).toBe(true);
+      expect(await page.textContent('main')).toContain(`${farrierName}'s day sheet`);
+      await hydrated(page);
+      await page.waitForSelector('[data-testid="offline-copy"]');
+      expect(await page.locator('[data-testid="offline-copy"]').textContent()).toMatch(/Showing the sheet as loaded (at|\w{3} \d{1,2} \w{3},) \d{1,2}:\d{2}(am|pm)\. Marks you make are kept on this phone/);
+      expect(await first.getAttribute('data-state')).toBe('done');
+      expect(await second.getAttribute('data-state')).toBe('arrived');
+      await page.waitForFunction(() => document.querySelector('[data-testid="sync-status"]')?.textContent?.includes('1 mark waiting'));
+      await page.evaluate(() => document.querySelector('[data-testid="sync-status"]')?.scrollIntoView({ block: 'start' }));
+      await screenshot(page, 'day-sheet-phone-offline-reopened');
+      // "Day sheet" in the navigation (/day, today) opens the kept copy; a day never opened here says so.
+      await page.goto(`${APP_URL}/day`);
+      expect(new URL(page.url()).pathname).toBe(`/day/${DATE}`);
+      const never = await page.goto(`${APP_URL}/day/2031-01-06`);
+      expect(never?.status()).toBe(503);
+      expect(await page.textContent('body')).toContain('was not opened on this phone');
+      await page.goto(`${APP_URL}/day/${DATE}`);
+      await hydrated(page);
+      expect(await knex('visit_logs').where({ stop_id: day.stopIds[1] })).toHaveLength(0);
       await context.setOffline(false);
       await page.evaluate(() => window.dispatchEvent(new Event('online')));
       await page.waitForFunction(() => document.querySelector('[data-testid="sync-status"]')?.textContent?.includes('all marks sent'), undefined, { timeout: 30_000 });
@@ -111,6 +141,11 @@ describe('the day sheet in a browser', () => {
       await page.emulateMedia({ media: 'print' });
       await page.screenshot({ path: '.data/screenshots/day-sheet-print.png', fullPage: true });
       await page.emulateMedia({ media: 'screen' });
+
+      // Signing out leaves no day sheet on the phone for the next person to open.
+      expect(await page.evaluate(() => caches.has('roundsmith-day-pages-v1'))).toBe(true);
+      await Promise.all([page.waitForURL((url) => url.pathname.startsWith('/sign-in')), page.evaluate(() => (document.querySelector('form[action="/sign-out"]') as HTMLFormElement).submit())]);
+      await page.waitForFunction(async () => !(await caches.has('roundsmith-day-pages-v1')));
     } finally {
       await browser.close();
     }

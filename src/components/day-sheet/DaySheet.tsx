@@ -10,6 +10,8 @@ import { reestimate, type StopMark } from '../../lib/day-sheet/reestimate';
 import type { DayLogView } from '../../lib/day-sheet/day-logs';
 import { isDayMark, newClientKey, readQueue, sendMark, writeQueue, type QueuedDayMark, type QueuedMark, type QueuedStopMark } from './mark-queue';
 import DayMarks from './DayMarks';
+import { refreshKeptCopy } from './offline-copy';
+import { dayText } from '../../lib/messaging/local-time';
 
 interface Props {
   sheet: Sheet;
@@ -18,12 +20,22 @@ interface Props {
   /** Whether the viewer may mark stops (the farrier, or a dispatcher/lead on a published day). */
   canMark: boolean;
   skipReasons: readonly string[];
+  /** When the server rendered this page: a copy the phone kept for a dead spot says how old it is. */
+  renderedAt: string;
 }
 
 type MarkState = 'arrived' | 'done' | 'skipped';
 
 function clock(iso: string | number, timeZone: string): string {
   return new Intl.DateTimeFormat('en-US', { timeZone, hour: 'numeric', minute: '2-digit' }).format(new Date(iso)).replace(' AM', 'am').replace(' PM', 'pm');
+}
+
+/** "at 7:02am" for a page loaded today, "Tue 14 Jul, 7:02am" for an older copy. */
+function loadedAt(iso: string, timeZone: string): string {
+  const day = (t: number) => new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(t);
+  const at = Date.parse(iso);
+  if (day(at) === day(Date.now())) return `at ${clock(iso, timeZone)}`;
+  return `${dayText(new Date(at), timeZone)}, ${clock(iso, timeZone)}`;
 }
 
 function duration(sec: number): string {
@@ -68,7 +80,7 @@ function Directions({ leg, units, label, open }: { leg: DaySheetLeg; units: 'mil
   );
 }
 
-export default function DaySheet({ sheet, timeZone, units, canMark, skipReasons }: Props) {
+export default function DaySheet({ sheet, timeZone, units, canMark, skipReasons, renderedAt }: Props) {
   const [queue, setQueue] = useState<QueuedMark[]>([]);
   const [online, setOnline] = useState(true);
   const [problem, setProblem] = useState<string | null>(null);
@@ -110,9 +122,11 @@ export default function DaySheet({ sheet, timeZone, units, canMark, skipReasons 
   const refreshDay = useCallback(async () => {
     try {
       const response = await fetch(`/api/day-logs?date=${sheet.date}&farrier=${sheet.farrier.id}`, { headers: { accept: 'application/json' }, credentials: 'same-origin' });
+      setOnline(true);
       if (response.ok) setConfirmedDay(((await response.json()) as { dayLogs: DayLogView[] }).dayLogs[0] ?? null);
     } catch {
-      // offline: keep what we have
+      // offline (this may be the copy the phone kept): keep what we have
+      setOnline(false);
     }
   }, [sheet.date, sheet.farrier.id]);
 
@@ -120,6 +134,7 @@ export default function DaySheet({ sheet, timeZone, units, canMark, skipReasons 
     if (flushing.current) return;
     flushing.current = true;
     let dayTouched = false;
+    let sent = 0;
     try {
       let list = readQueue();
       for (const mark of [...list]) {
@@ -129,6 +144,7 @@ export default function DaySheet({ sheet, timeZone, units, canMark, skipReasons 
           break;
         }
         setOnline(true);
+        sent++;
         list = readQueue().filter((m) => m.clientKey !== mark.clientKey);
         writeQueue(list);
         if (isDayMark(mark)) {
@@ -162,12 +178,16 @@ export default function DaySheet({ sheet, timeZone, units, canMark, skipReasons 
       flushing.current = false;
     }
     if (dayTouched) void refreshDay();
+    // the copy kept for dead spots should show what the server now holds
+    if (sent) void refreshKeptCopy();
   }, [refreshDay, sheet.date, sheet.farrier.id]);
 
   useEffect(() => {
     setQueue(readQueue());
     setOnline(navigator.onLine);
     void flush();
+    // also tells a copy kept for a dead spot that it is offline, and brings its day marks up to date
+    void refreshDay();
     const onOnline = () => {
       setOnline(true);
       void flush();
@@ -181,7 +201,7 @@ export default function DaySheet({ sheet, timeZone, units, canMark, skipReasons 
       window.removeEventListener('offline', onOffline);
       clearInterval(timer);
     };
-  }, [flush]);
+  }, [flush, refreshDay]);
 
   const markDay = (kind: 'start' | 'end', odometer: number | null) => {
     const entry: QueuedDayMark = { clientKey: newClientKey(), kind, date: sheet.date, farrierId: sheet.farrier.id, at: new Date().toISOString(), odometer };
@@ -242,6 +262,11 @@ export default function DaySheet({ sheet, timeZone, units, canMark, skipReasons 
           {waiting
             ? `${online ? 'Sending' : 'No signal'}: ${waiting} mark${waiting === 1 ? '' : 's'} waiting, sent when you are back in range`
             : `${doneCount} of ${sheet.stops.length} stops done · all marks sent`}
+        </p>
+      )}
+      {!online && (
+        <p data-testid="offline-copy" className="no-print mt-2 rounded-lg bg-slateblue-100 px-3 py-2 text-base text-slateblue-800">
+          {waiting ? 'Showing' : 'No signal: showing'} the sheet as loaded <span className="figure font-semibold">{loadedAt(renderedAt, timeZone)}</span>. Marks you make are kept on this phone.
         </p>
       )}
       {problem && <p role="alert" className="no-print mt-2 rounded-lg bg-ember-100 px-3 py-2 text-base text-ember-900">{problem}</p>}
