@@ -7,7 +7,7 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import Map, { Layer, Source, type MapRef } from 'react-map-gl/maplibre';
 import type { CircleLayerSpecification, SymbolLayerSpecification } from 'maplibre-gl';
 import 'maplibre-gl/dist/maplibre-gl.css';
-import { boundsOf, homesCollection, homesLayer, routesCasingLayer, routesCollection, routesLayer } from '../map/map-layers';
+import { boundsOf, homesCollection, homesLayer, PLACE_LABELS_LAYER, routesCasingLayer, routesCollection, routesLayer } from '../map/map-layers';
 
 export interface DayMapStop {
   id: number;
@@ -73,14 +73,14 @@ export default function DayMap({ colour, home, stops, line }: Props) {
         style={{ width: '100%', height: '100%' }}
       >
         <Source id="rs-routes" type="geojson" data={routeData}>
-          <Layer {...routesCasingLayer} />
-          <Layer {...routesLayer} />
+          <Layer {...routesCasingLayer} beforeId={PLACE_LABELS_LAYER} />
+          <Layer {...routesLayer} beforeId={PLACE_LABELS_LAYER} />
         </Source>
         <Source id="rs-homes" type="geojson" data={homeData}>
-          <Layer {...homesLayer} />
+          <Layer {...homesLayer} beforeId={PLACE_LABELS_LAYER} />
         </Source>
         <Source id="ds-stops" type="geojson" data={stopData}>
-          <Layer {...stopsLayer} />
+          <Layer {...stopsLayer} beforeId={PLACE_LABELS_LAYER} />
           <Layer {...numbersLayer} />
         </Source>
       </Map>

@@ -16,6 +16,7 @@ import {
   homesLayer,
   INTERACTIVE_LAYER_IDS,
   LAYER_IDS,
+  PLACE_LABELS_LAYER,
   routeIds,
   routeLayers,
   routesCasingLayer,
@@ -172,8 +173,8 @@ export default function MapView({ barns, homes, routes = [], selectedBarnId, onB
         <ScaleControl position="bottom-left" unit={units === 'miles' ? 'imperial' : 'metric'} />
         {/* The shared route layers stay empty: they anchor the order (all casings, then all lines, under homes and barns). */}
         <Source id="rs-routes" type="geojson" data={EMPTY_LINES}>
-          <Layer {...routesCasingLayer} />
-          <Layer {...routesLayer} />
+          <Layer {...routesCasingLayer} beforeId={PLACE_LABELS_LAYER} />
+          <Layer {...routesLayer} beforeId={PLACE_LABELS_LAYER} />
         </Source>
         {routeSources.map(([key, { data }]) => {
           const layers = routeLayers(key);
@@ -185,10 +186,10 @@ export default function MapView({ barns, homes, routes = [], selectedBarnId, onB
           );
         })}
         <Source id="rs-homes" type="geojson" data={homeData}>
-          <Layer {...homesLayer} />
+          <Layer {...homesLayer} beforeId={PLACE_LABELS_LAYER} />
         </Source>
         <Source id="rs-barns" type="geojson" data={barnData}>
-          <Layer {...barnsLayer} />
+          <Layer {...barnsLayer} beforeId={PLACE_LABELS_LAYER} />
           <Layer {...barnLabelsLayer} />
         </Source>
         {picked?.kind === 'barn' && (

@@ -41,6 +41,13 @@ export const DUE_STATES: Record<DueState, { colour: string; label: string }> = {
   booked: { colour: '#2f7d4f', label: 'Booked' },
 };
 
+/**
+ * The base style's village names (src/lib/map/style.ts): our routes, homes and barns go under them,
+ * so a home or barn at a village's centre never hides its name (the name has a halo and sits below
+ * the point).
+ */
+export const PLACE_LABELS_LAYER = 'village-label';
+
 export const LAYER_IDS = {
   routesCasing: 'rs-routes-casing',
   routes: 'rs-routes',

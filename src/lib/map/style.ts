@@ -180,6 +180,9 @@ export function buildStyle({ origin, region }: StyleOptions): StyleSpecification
         'text-size': ['interpolate', ['linear'], ['zoom'], 8, 12, 12, 16, 15, 20],
         'text-letter-spacing': 0.04,
         'text-allow-overlap': false,
+        // below the place's point, not on it: farrier homes and barns often sit at a village's centre
+        'text-anchor': 'top',
+        'text-offset': [0, 0.6],
       },
       paint: { 'text-color': C.placeLabel, 'text-halo-color': C.roadHalo, 'text-halo-width': 2 },
     },
