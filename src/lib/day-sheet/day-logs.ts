@@ -10,27 +10,21 @@
  */
 import type { Knex } from 'knex';
 import { audit } from '../db/audit.ts';
+import {
+  dayLogExists, findDayLogByClientKey, getDayLog, insertImpliedStart, insertMarkedStart, lockDayLog, lockDayLogOfDay, recordDayEnd,
+  updateDayLogFigures, type DayLogView,
+} from '../db/day-logs.ts';
+import { getRouteOfDay } from '../db/plans.ts';
+import { existsInPractice } from '../db/records-lock.ts';
 import { HttpError } from '../server/http.ts';
 import type { Units } from '../review/mileage.ts';
 import { odometerDistanceM, odometerProblem, MAX_DAY_ODOMETER_UNITS } from './odometer.ts';
 import { unitLabel } from '../review/mileage.ts';
 import type { MarkActor } from './visits.ts';
 
-/** A day log as the API and the day sheet show it. */
-export interface DayLogView {
-  id: number;
-  farrierId: number;
-  date: string;
-  startedAt: string;
-  endedAt: string | null;
-  startOdometer: number | null;
-  endOdometer: number | null;
-  distanceM: number | null;
-  /** 'odometer' measured, 'planned' the published route's distance, null not recorded (older logs). */
-  distanceSource: 'odometer' | 'planned' | null;
-  /** 'marked' by Start the day, 'first_stop' implied by the first stop mark, null for older logs. */
-  startSource: 'marked' | 'first_stop' | null;
-}
+export type { DayLogView };
+/** Day logs of a date for the practice (or one farrier), for GET /api/day-logs and the day sheet. */
+export { listDayLogs as dayLogsOf } from '../db/day-logs.ts';
 
 export interface DayMarkInput {
   clientKey: string;
@@ -72,39 +66,14 @@ export interface DayMarkResult {
 /** How far from the planned day a mark's time may be: a time outside it is a wrong clock or wrong day. */
 const SLACK_MS = 12 * 3600_000;
 
-const iso = (d: Date | string | null): string | null => (d ? new Date(d).toISOString() : null);
-
-function viewOf(row: Record<string, unknown>): DayLogView {
-  return {
-    id: Number(row.id),
-    farrierId: Number(row.farrier_id),
-    date: String(row.work_date),
-    startedAt: iso(row.started_at as Date)!,
-    endedAt: iso(row.ended_at as Date | null),
-    startOdometer: row.start_odometer == null ? null : Number(row.start_odometer),
-    endOdometer: row.end_odometer == null ? null : Number(row.end_odometer),
-    distanceM: row.distance_m == null ? null : Number(row.distance_m),
-    distanceSource: (row.distance_source as DayLogView['distanceSource']) ?? null,
-    startSource: (row.start_source as DayLogView['startSource']) ?? null,
-  };
-}
-
 function clockText(d: Date | string, timeZone: string): string {
   return new Intl.DateTimeFormat('en-US', { timeZone, hour: 'numeric', minute: '2-digit' }).format(new Date(d)).replace(' AM', 'am').replace(' PM', 'pm');
 }
 
-/** The farrier's route on the practice's plan of a day, with the plan's state (null when none). */
-async function routeOfDay(db: Knex | Knex.Transaction, practiceId: number, farrierId: number, date: string) {
-  return db('routes as r')
-    .join('plans as p', 'p.id', 'r.plan_id')
-    .where({ 'p.practice_id': practiceId, 'r.practice_id': practiceId, 'p.plan_date': date, 'r.farrier_id': farrierId })
-    .first('r.id', 'r.start_at', 'r.end_at', 'r.distance_m', 'p.state as plan_state');
-}
-
 /** The planned distance of the farrier's published route that day, the fallback when no odometer pair exists. */
 async function plannedDistanceM(db: Knex | Knex.Transaction, practiceId: number, farrierId: number, date: string): Promise<number | null> {
-  const r = await routeOfDay(db, practiceId, farrierId, date);
-  return r && r.plan_state === 'published' ? Number(r.distance_m) : null;
+  const r = await getRouteOfDay(db, practiceId, farrierId, date);
+  return r && r.planState === 'published' ? r.distanceM : null;
 }
 
 function odometerRefusal(problem: 'backwards' | 'too_far', start: number, units: Units, field: string): DayMarkRefused {
@@ -128,52 +97,45 @@ export async function recordDayMark(db: Knex, actor: MarkActor, input: DayMarkIn
     farrierId = input.farrierId;
   }
   return db.transaction(async (trx) => {
-    const replay = await trx('day_logs').where({ start_client_key: input.clientKey }).orWhere({ end_client_key: input.clientKey }).first();
+    const replay = await findDayLogByClientKey(trx, input.clientKey);
     if (replay) {
-      if (replay.practice_id !== actor.practiceId || replay.farrier_id !== farrierId) throw new DayMarkRefused(409, 'This mark key is already used');
-      return { replayed: true, dayLog: viewOf(replay) };
+      if (replay.practiceId !== actor.practiceId || replay.dayLog.farrierId !== farrierId) throw new DayMarkRefused(409, 'This mark key is already used');
+      return { replayed: true, dayLog: replay.dayLog };
     }
-    const farrier = await trx('farriers').where({ id: farrierId, practice_id: actor.practiceId }).first('id');
-    if (!farrier) throw new DayMarkRefused(404, 'Farrier not found');
-    const route = await routeOfDay(trx, actor.practiceId, farrierId, input.date);
+    if (!(await existsInPractice(trx, 'farriers', actor.practiceId, farrierId))) throw new DayMarkRefused(404, 'Farrier not found');
+    const route = await getRouteOfDay(trx, actor.practiceId, farrierId, input.date);
     if (!route) throw new DayMarkRefused(404, `No day sheet for this farrier on ${input.date}`);
-    if (route.plan_state !== 'published') throw new DayMarkRefused(409, 'This day is not published yet');
+    if (route.planState !== 'published') throw new DayMarkRefused(409, 'This day is not published yet');
     const at = new Date(input.at);
-    if (at.getTime() < new Date(route.start_at).getTime() - SLACK_MS || at.getTime() > new Date(route.end_at).getTime() + SLACK_MS) {
+    if (at.getTime() < route.startAt.getTime() - SLACK_MS || at.getTime() > route.endAt.getTime() + SLACK_MS) {
       throw new DayMarkRefused(400, `That time is not on the day of ${input.date}: check the phone's clock`, 'at');
     }
-    const log = await trx('day_logs').where({ practice_id: actor.practiceId, farrier_id: farrierId, work_date: input.date }).forUpdate().first();
+    const log = await lockDayLogOfDay(trx, actor.practiceId, farrierId, input.date);
     const odometer = input.odometer ?? null;
 
     if (input.kind === 'start') {
       if (log) {
-        const how = log.start_source === 'first_stop' ? ' (at the planned departure, when the first stop was marked)' : '';
-        throw new DayMarkRefused(409, `The day was already started at ${clockText(log.started_at, practice.timeZone)}${how}; this start changes nothing`);
+        const how = log.startSource === 'first_stop' ? ' (at the planned departure, when the first stop was marked)' : '';
+        throw new DayMarkRefused(409, `The day was already started at ${clockText(log.startedAt, practice.timeZone)}${how}; this start changes nothing`);
       }
-      const [id] = await trx('day_logs').insert({
-        practice_id: actor.practiceId, farrier_id: farrierId, work_date: input.date,
-        started_at: at, start_odometer: odometer, start_source: 'marked', start_client_key: input.clientKey,
-      });
-      await audit(trx, { practiceId: actor.practiceId, userId: actor.id, action: 'day_log.started', entity: 'day_log', entityId: Number(id), detail: { clientKey: input.clientKey, at: input.at, odometer } });
-      return { replayed: false, dayLog: viewOf(await trx('day_logs').where({ id }).first()) };
+      const id = await insertMarkedStart(trx, { practiceId: actor.practiceId, farrierId, date: input.date, startedAt: at, startOdometer: odometer, clientKey: input.clientKey });
+      await audit(trx, { practiceId: actor.practiceId, userId: actor.id, action: 'day_log.started', entity: 'day_log', entityId: id, detail: { clientKey: input.clientKey, at: input.at, odometer } });
+      return { replayed: false, dayLog: await getDayLog(trx, id) };
     }
 
     if (!log) throw new DayMarkRefused(409, 'Back home before the day was started: mark Start the day first (or ask the office to correct the day)');
-    if (log.ended_at) throw new DayMarkRefused(409, `The day already ended at ${clockText(log.ended_at, practice.timeZone)}; ask the office to correct it`);
-    if (at.getTime() <= new Date(log.started_at).getTime()) {
-      throw new DayMarkRefused(409, `Back home at ${clockText(at, practice.timeZone)} is before the day's start at ${clockText(log.started_at, practice.timeZone)}`);
+    if (log.endedAt) throw new DayMarkRefused(409, `The day already ended at ${clockText(log.endedAt, practice.timeZone)}; ask the office to correct it`);
+    if (at.getTime() <= new Date(log.startedAt).getTime()) {
+      throw new DayMarkRefused(409, `Back home at ${clockText(at, practice.timeZone)} is before the day's start at ${clockText(log.startedAt, practice.timeZone)}`);
     }
-    const start = log.start_odometer == null ? null : Number(log.start_odometer);
+    const start = log.startOdometer;
     const problem = odometerProblem(start, odometer);
     if (problem) throw odometerRefusal(problem, start!, practice.units, 'odometer');
     const measured = odometerDistanceM(start, odometer, practice.units);
-    const distanceM = measured ?? Number(route.distance_m);
-    await trx('day_logs').where({ id: log.id }).update({
-      ended_at: at, end_odometer: odometer, end_client_key: input.clientKey,
-      distance_m: distanceM, distance_source: measured != null ? 'odometer' : 'planned',
-    });
+    const distanceM = measured ?? route.distanceM;
+    await recordDayEnd(trx, log.id, { endedAt: at, endOdometer: odometer, clientKey: input.clientKey, distanceM, distanceSource: measured != null ? 'odometer' : 'planned' });
     await audit(trx, { practiceId: actor.practiceId, userId: actor.id, action: 'day_log.ended', entity: 'day_log', entityId: log.id, detail: { clientKey: input.clientKey, at: input.at, odometer, distanceM } });
-    return { replayed: false, dayLog: viewOf(await trx('day_logs').where({ id: log.id }).first()) };
+    return { replayed: false, dayLog: await getDayLog(trx, log.id) };
   });
 }
 
@@ -185,13 +147,9 @@ export async function startDayImplicitly(
   trx: Knex.Transaction,
   opts: { practiceId: number; farrierId: number; date: string; plannedStartAt: Date; userId: number; stopId: number },
 ): Promise<void> {
-  const existing = await trx('day_logs').where({ farrier_id: opts.farrierId, work_date: opts.date }).first('id');
-  if (existing) return;
-  const [id] = await trx('day_logs')
-    .insert({ practice_id: opts.practiceId, farrier_id: opts.farrierId, work_date: opts.date, started_at: opts.plannedStartAt, start_source: 'first_stop' })
-    .onConflict(['farrier_id', 'work_date'])
-    .ignore();
-  if (id) await audit(trx, { practiceId: opts.practiceId, userId: opts.userId, action: 'day_log.started', entity: 'day_log', entityId: Number(id), detail: { implied: true, byStopId: opts.stopId } });
+  if (await dayLogExists(trx, opts.farrierId, opts.date)) return;
+  const id = await insertImpliedStart(trx, { practiceId: opts.practiceId, farrierId: opts.farrierId, date: opts.date, startedAt: opts.plannedStartAt });
+  if (id) await audit(trx, { practiceId: opts.practiceId, userId: opts.userId, action: 'day_log.started', entity: 'day_log', entityId: id, detail: { implied: true, byStopId: opts.stopId } });
 }
 
 export interface DayLogCorrection {
@@ -210,12 +168,12 @@ export interface DayLogCorrection {
  */
 export async function correctDayLog(db: Knex, actor: MarkActor, id: number, input: DayLogCorrection, practice: DayPractice): Promise<DayLogView> {
   return db.transaction(async (trx) => {
-    const log = await trx('day_logs').where({ id, practice_id: actor.practiceId }).forUpdate().first();
+    const log = await lockDayLog(trx, actor.practiceId, id);
     if (!log) throw new DayMarkRefused(404, 'Day log not found');
-    const startedAt = input.startedAt !== undefined ? new Date(input.startedAt) : new Date(log.started_at);
-    const endedAt = input.endedAt !== undefined ? (input.endedAt ? new Date(input.endedAt) : null) : log.ended_at ? new Date(log.ended_at) : null;
-    const startOdometer = input.startOdometer !== undefined ? input.startOdometer : log.start_odometer == null ? null : Number(log.start_odometer);
-    const endOdometer = input.endOdometer !== undefined ? input.endOdometer : log.end_odometer == null ? null : Number(log.end_odometer);
+    const startedAt = input.startedAt !== undefined ? new Date(input.startedAt) : new Date(log.startedAt);
+    const endedAt = input.endedAt !== undefined ? (input.endedAt ? new Date(input.endedAt) : null) : log.endedAt ? new Date(log.endedAt) : null;
+    const startOdometer = input.startOdometer !== undefined ? input.startOdometer : log.startOdometer;
+    const endOdometer = input.endOdometer !== undefined ? input.endOdometer : log.endOdometer;
     if (endedAt && endedAt.getTime() <= startedAt.getTime()) throw new DayMarkRefused(400, 'Back home must be after the start of the day', 'endedAt');
     const problem = odometerProblem(startOdometer, endOdometer);
     if (problem) throw odometerRefusal(problem, startOdometer!, practice.units, 'endOdometer');
@@ -224,23 +182,15 @@ export async function correctDayLog(db: Knex, actor: MarkActor, id: number, inpu
     const measured = odometerDistanceM(startOdometer, endOdometer, practice.units);
     if (!endedAt) [distanceM, distanceSource] = [null, null];
     else if (measured != null) [distanceM, distanceSource] = [measured, 'odometer'];
-    else if (log.distance_source == null && log.distance_m != null) [distanceM, distanceSource] = [Number(log.distance_m), null];
+    else if (log.distanceSource == null && log.distanceM != null) [distanceM, distanceSource] = [log.distanceM, null];
     else {
-      distanceM = await plannedDistanceM(trx, actor.practiceId, log.farrier_id, log.work_date);
+      distanceM = await plannedDistanceM(trx, actor.practiceId, log.farrierId, log.date);
       distanceSource = distanceM == null ? null : 'planned';
     }
-    const after = { started_at: startedAt, ended_at: endedAt, start_odometer: startOdometer, end_odometer: endOdometer, distance_m: distanceM, distance_source: distanceSource };
-    await trx('day_logs').where({ id }).update(after);
-    const before = viewOf(log);
-    const now = viewOf({ ...log, ...after });
-    await audit(trx, { practiceId: actor.practiceId, userId: actor.id, action: 'day_log.corrected', entity: 'day_log', entityId: id, detail: { reason: input.reason, before, after: now } });
+    const figures = { startedAt, endedAt, startOdometer, endOdometer, distanceM, distanceSource };
+    await updateDayLogFigures(trx, id, figures);
+    const now: DayLogView = { ...log, ...figures, startedAt: startedAt.toISOString(), endedAt: endedAt ? endedAt.toISOString() : null };
+    await audit(trx, { practiceId: actor.practiceId, userId: actor.id, action: 'day_log.corrected', entity: 'day_log', entityId: id, detail: { reason: input.reason, before: log, after: now } });
     return now;
   });
-}
-
-/** Day logs of a date for the practice (or one farrier), for GET /api/day-logs and the day sheet. */
-export async function dayLogsOf(db: Knex, practiceId: number, date: string, farrierId?: number): Promise<DayLogView[]> {
-  const q = db('day_logs').where({ practice_id: practiceId, work_date: date }).orderBy('farrier_id');
-  if (farrierId !== undefined) q.andWhere({ farrier_id: farrierId });
-  return (await q).map(viewOf);
 }

@@ -111,3 +111,55 @@ export async function ownerInUse(db: Knex | Knex.Transaction, id: number): Promi
 export async function deleteOwner(db: Knex | Knex.Transaction, practiceId: number, id: number): Promise<void> {
   await db('owners').where({ practice_id: practiceId, id }).delete();
 }
+
+/** An owner an inbound text came from, with what the reply to it needs from the owner's practice. */
+export interface TextingOwner {
+  id: number;
+  practiceId: number;
+  optedOutAt: Date | null;
+  textConsentAt: Date | null;
+  practiceName: string;
+  contactPhone: string | null;
+  contactEmail: string | null;
+}
+
+/**
+ * Current owners with this phone number in every practice: practices can share a sender number, so an
+ * inbound text is not tied to one practice until its owners are found.
+ */
+export async function findOwnersByPhone(db: Knex | Knex.Transaction, phone: string): Promise<TextingOwner[]> {
+  const rows: {
+    id: number;
+    practice_id: number;
+    opted_out_at: Date | null;
+    text_consent_at: Date | null;
+    practice_name: string;
+    contact_phone: string | null;
+    contact_email: string | null;
+  }[] = await db('owners as o')
+    .join('practices as p', 'p.id', 'o.practice_id')
+    .where('o.phone', phone)
+    .whereNull('o.archived_at')
+    .select('o.id', 'o.practice_id', 'o.opted_out_at', 'o.text_consent_at', 'p.name as practice_name', 'p.contact_phone', 'p.contact_email');
+  return rows.map((r) => ({
+    id: r.id,
+    practiceId: r.practice_id,
+    optedOutAt: r.opted_out_at,
+    textConsentAt: r.text_consent_at,
+    practiceName: r.practice_name,
+    contactPhone: r.contact_phone,
+    contactEmail: r.contact_email,
+  }));
+}
+
+/** Records an opt-out with its time; call it in the transaction that also drops the owner's queued texts. */
+export async function optOutOwner(trx: Knex.Transaction, ownerId: number): Promise<void> {
+  await trx('owners').where({ id: ownerId }).update({ opted_out_at: trx.fn.now(), updated_at: trx.fn.now(3) });
+}
+
+/** Clears an opt-out; consent keeps `consentAt` when one was recorded, else it is given now. */
+export async function optInOwner(db: Knex | Knex.Transaction, ownerId: number, consentAt: Date | null): Promise<void> {
+  await db('owners')
+    .where({ id: ownerId })
+    .update({ opted_out_at: null, text_consent_at: consentAt ?? db.fn.now(), updated_at: db.fn.now(3) });
+}

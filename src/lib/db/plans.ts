@@ -246,8 +246,11 @@ export async function getPlan(db: Db, practiceId: number, id: number, opts: { fo
   return row ? planFromRow(row) : null;
 }
 
-export async function getPlanByDate(db: Db, practiceId: number, date: string): Promise<PlanRow | null> {
-  const row = await db('plans').where({ practice_id: practiceId, plan_date: date }).first();
+/** The practice's plan of a date; with `publishedOnly` a draft counts as none (farriers work from published plans). */
+export async function getPlanByDate(db: Db, practiceId: number, date: string, opts: { publishedOnly?: boolean } = {}): Promise<PlanRow | null> {
+  const q = db('plans').where({ practice_id: practiceId, plan_date: date });
+  if (opts.publishedOnly) q.andWhere('state', 'published');
+  const row = await q.first();
   return row ? planFromRow(row) : null;
 }
 
@@ -296,7 +299,11 @@ export async function loadRoutes(db: Db, practiceId: number, planId: number): Pr
     });
     stopsByRoute.set(s.route_id, list);
   }
-  return routes.map((r) => ({
+  return routes.map((r) => ({ ...routeFromRow(r), stops: stopsByRoute.get(r.id) ?? [] }));
+}
+
+function routeFromRow(r: Record<string, any>): Omit<StoredRoute, 'stops'> {
+  return {
     id: r.id,
     farrierId: r.farrier_id,
     startAt: r.start_at,
@@ -306,8 +313,30 @@ export async function loadRoutes(db: Db, practiceId: number, planId: number): Pr
     workSeconds: r.work_seconds,
     overtimeSeconds: r.overtime_seconds,
     breakStartAt: r.break_start_at,
-    stops: stopsByRoute.get(r.id) ?? [],
-  }));
+  };
+}
+
+/** One farrier's route on a plan, without its stops (the day sheet reads those with their barns). */
+export async function getRouteOfPlan(db: Db, practiceId: number, planId: number, farrierId: number): Promise<Omit<StoredRoute, 'stops'> | null> {
+  const row = await db('routes').where({ plan_id: planId, farrier_id: farrierId, practice_id: practiceId }).first();
+  return row ? routeFromRow(row) : null;
+}
+
+/**
+ * The farrier's route on the practice's plan of a date, with the plan's state, whatever that state:
+ * the day's marks answer "not published yet" differently from "no day sheet".
+ */
+export async function getRouteOfDay(
+  db: Db,
+  practiceId: number,
+  farrierId: number,
+  date: string,
+): Promise<{ id: number; startAt: Date; endAt: Date; distanceM: number; planState: PlanRow['state'] } | null> {
+  const row = await db('routes as r')
+    .join('plans as p', 'p.id', 'r.plan_id')
+    .where({ 'p.practice_id': practiceId, 'r.practice_id': practiceId, 'p.plan_date': date, 'r.farrier_id': farrierId })
+    .first('r.id', 'r.start_at', 'r.end_at', 'r.distance_m', 'p.state as plan_state');
+  return row ? { id: row.id, startAt: row.start_at, endAt: row.end_at, distanceM: Number(row.distance_m), planState: row.plan_state } : null;
 }
 
 /** Multi-row INSERT … RETURNING (MariaDB 10.5+): one round trip, and each row's id paired with its own key columns. */

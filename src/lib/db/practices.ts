@@ -66,7 +66,7 @@ export async function lockPractice(trx: Knex.Transaction, practiceId: number): P
   await trx('practices').where({ id: practiceId }).forUpdate().first('id');
 }
 
-export async function getPractice(db: Knex, practiceId: number): Promise<Practice | null> {
+export async function getPractice(db: Knex | Knex.Transaction, practiceId: number): Promise<Practice | null> {
   const row = await db<PracticeRow>('practices').where({ id: practiceId }).first();
   return row ? fromRow(row) : null;
 }

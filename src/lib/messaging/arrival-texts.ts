@@ -10,6 +10,20 @@
  */
 import type { Knex } from 'knex';
 import { randomUUID } from 'node:crypto';
+import { listStopHorses, listTextStops, setStopWindow, type StopHorse } from '../db/arrival-texts.ts';
+import { audit } from '../db/audit.ts';
+import {
+  claimText,
+  closeClaimedText,
+  deferClaimedText,
+  insertQueuedText,
+  listDueTexts,
+  listVisitTexts,
+  markClaimedTextSent,
+  suppressTexts,
+} from '../db/messages.ts';
+import { getPlan } from '../db/plans.ts';
+import { getPractice } from '../db/practices.ts';
 import { arrivalWindow, movedBeyond, type ArrivalWindow } from './arrival-window.ts';
 import { clockText, dayText } from './local-time.ts';
 import { earliestSendAt } from './quiet-hours.ts';
@@ -48,24 +62,6 @@ export function windowOfKey(key: string): ArrivalWindow | null {
   return m ? { startAt: new Date(Number(m[1]) * 60_000), endAt: new Date(Number(m[2]) * 60_000) } : null;
 }
 
-interface StopRow {
-  stop_id: number;
-  position: number;
-  barn_id: number;
-  barn_name: string;
-  arrival_at: Date;
-  farrier_name: string;
-}
-
-interface HorseRow {
-  stop_id: number;
-  horse_name: string;
-  owner_id: number;
-  owner_phone: string | null;
-  text_consent_at: Date | null;
-  opted_out_at: Date | null;
-}
-
 /**
  * Computes every stop's arrival window for a published plan, writes it to stops.window_start_at /
  * window_end_at (the day sheet and the board show the same window the owner was told), and queues one
@@ -79,120 +75,87 @@ export async function queueArrivalTexts(
   { practiceId, planId, userId }: { practiceId: number; planId: number; userId: number | null },
   now: Date = new Date(),
 ): Promise<QueueResult> {
-  const plan = await trx('plans').where({ id: planId, practice_id: practiceId }).first<{ plan_date: string; state: string } | undefined>();
+  const plan = await getPlan(trx, practiceId, planId);
   if (!plan) throw new Error(`plan ${planId} not found in practice ${practiceId}`);
-  const practice = await trx('practices').where({ id: practiceId }).first<{ name: string; time_zone: string }>();
+  // The plan belongs to the practice, so the practice row is there.
+  const practice = (await getPractice(trx, practiceId))!;
   const settings = await getTextSettings(trx, practiceId);
-  const tz = practice.time_zone;
+  const tz = practice.timeZone;
   const sendAfter = earliestSendAt(now, tz, quietHoursOf(settings));
   const from = smsConfig()?.from ?? null;
 
-  const stops: StopRow[] = await trx('stops as s')
-    .join('routes as r', 'r.id', 's.route_id')
-    .join('farriers as f', 'f.id', 'r.farrier_id')
-    .join('barns as b', 'b.id', 's.barn_id')
-    .where('r.plan_id', planId)
-    .andWhere('s.practice_id', practiceId)
-    .select('s.id as stop_id', 's.position', 's.barn_id', 'b.name as barn_name', 's.arrival_at', 'f.name as farrier_name')
-    .orderBy([{ column: 'r.farrier_id' }, { column: 's.position' }]);
-  const horses: HorseRow[] = stops.length
-    ? await trx('stop_jobs as sj')
-        .join('jobs as j', 'j.id', 'sj.job_id')
-        .join('horses as h', 'h.id', 'j.horse_id')
-        .join('owners as o', 'o.id', 'h.owner_id')
-        .whereIn('sj.stop_id', stops.map((s) => s.stop_id))
-        .whereNot('j.state', 'cancelled')
-        .select('sj.stop_id', 'h.name as horse_name', 'o.id as owner_id', 'o.phone as owner_phone', 'o.text_consent_at', 'o.opted_out_at')
-        .orderBy([{ column: 'sj.stop_id' }, { column: 'sj.position' }])
-    : [];
+  const stops = await listTextStops(trx, practiceId, planId);
+  const horses = await listStopHorses(trx, stops.map((s) => s.stopId));
 
   const result: QueueResult = { queued: 0, updates: 0, unchanged: 0, notTexted: 0 };
   for (const stop of stops) {
-    const window = arrivalWindow(new Date(stop.arrival_at), stop.position, windowSettingsOf(settings));
-    await trx('stops').where({ id: stop.stop_id }).update({ window_start_at: window.startAt, window_end_at: window.endAt });
+    const window = arrivalWindow(stop.arrivalAt, stop.position, windowSettingsOf(settings));
+    await setStopWindow(trx, stop.stopId, window);
 
-    const byOwner = new Map<number, HorseRow[]>();
-    for (const h of horses.filter((x) => x.stop_id === stop.stop_id)) {
-      const list = byOwner.get(h.owner_id) ?? [];
+    const byOwner = new Map<number, StopHorse[]>();
+    for (const h of horses.filter((x) => x.stopId === stop.stopId)) {
+      const list = byOwner.get(h.ownerId) ?? [];
       list.push(h);
-      byOwner.set(h.owner_id, list);
+      byOwner.set(h.ownerId, list);
     }
     for (const [ownerId, owned] of byOwner) {
       const owner = owned[0]!;
-      if (!owner.owner_phone || !owner.text_consent_at || owner.opted_out_at) {
+      if (!owner.ownerPhone || !owner.textConsentAt || owner.optedOutAt) {
         result.notTexted += 1;
         continue;
       }
-      const prefix = visitKeyPrefix(practiceId, plan.plan_date, stop.barn_id, ownerId);
+      const prefix = visitKeyPrefix(practiceId, plan.date, stop.barnId, ownerId);
       const key = arrivalKey(prefix, window);
-      const earlier: { id: number; idempotency_key: string; state: string }[] = await trx('messages')
-        .where('idempotency_key', 'like', `${prefix}%`)
-        .select('id', 'idempotency_key', 'state')
-        .orderBy('id', 'desc');
+      const earlier = await listVisitTexts(trx, prefix);
       // A text with this very key exists in any state (even failed or suppressed): never a second one.
       const told = earlier.find((m) => m.state === 'sent' || m.state === 'delivered');
-      const pending = earlier.filter((m) => m.state === 'queued' && m.idempotency_key !== key);
-      if (earlier.some((m) => m.idempotency_key === key)) {
+      const pending = earlier.filter((m) => m.state === 'queued' && m.idempotencyKey !== key);
+      if (earlier.some((m) => m.idempotencyKey === key)) {
         // Back to a window already given: anything still waiting for another window is dropped.
-        if (pending.length) await trx('messages').whereIn('id', pending.map((m) => m.id)).update({ state: 'suppressed', error: 'Replaced by a newer window before sending', updated_at: trx.fn.now(3) });
+        if (pending.length) await suppressTexts(trx, pending.map((m) => m.id), 'Replaced by a newer window before sending');
         result.unchanged += 1;
         continue;
       }
-      const toldWindow = told ? windowOfKey(told.idempotency_key) : null;
+      const toldWindow = told ? windowOfKey(told.idempotencyKey) : null;
       const isUpdate = !!toldWindow;
       if (toldWindow && !movedBeyond(toldWindow, window, settings.updateThresholdMinutes)) {
         // The owner already holds a window close enough: nothing to say, and nothing still waiting.
-        if (pending.length) await trx('messages').whereIn('id', pending.map((m) => m.id)).update({ state: 'suppressed', error: 'Owner already has a close enough window', updated_at: trx.fn.now(3) });
+        if (pending.length) await suppressTexts(trx, pending.map((m) => m.id), 'Owner already has a close enough window');
         result.unchanged += 1;
         continue;
       }
-      if (pending.length) {
-        await trx('messages').whereIn('id', pending.map((m) => m.id)).update({ state: 'suppressed', error: 'Replaced by a newer window before sending', updated_at: trx.fn.now(3) });
-      }
+      if (pending.length) await suppressTexts(trx, pending.map((m) => m.id), 'Replaced by a newer window before sending');
       const values = {
         practice: practice.name,
-        farrier: stop.farrier_name.split(' ')[0]!,
-        barn: stop.barn_name,
-        date: dayText(plan.plan_date, tz),
+        farrier: stop.farrierName.split(' ')[0]!,
+        barn: stop.barnName,
+        date: dayText(plan.date, tz),
         start: clockText(window.startAt, tz),
         end: clockText(window.endAt, tz),
-        horses: listNames(owned.map((h) => h.horse_name)),
+        horses: listNames(owned.map((h) => h.horseName)),
         previous: toldWindow ? `${clockText(toldWindow.startAt, tz)}-${clockText(toldWindow.endAt, tz)}` : '',
       };
       const body = renderTemplate(isUpdate ? settings.updateTemplate : settings.arrivalTemplate, values);
       const count = countSegments(body);
-      await trx('messages')
-        .insert({
-          practice_id: practiceId,
-          channel: 'sms',
-          direction: 'out',
-          to_address: owner.owner_phone,
-          from_address: from,
-          body,
-          segments: count.segments,
-          encoding: count.encoding,
-          state: 'queued',
-          owner_id: ownerId,
-          plan_id: planId,
-          stop_id: stop.stop_id,
-          idempotency_key: key,
-          send_after: sendAfter,
-        })
-        .onConflict('idempotency_key')
-        .ignore();
+      await insertQueuedText(trx, {
+        practiceId,
+        to: owner.ownerPhone,
+        from,
+        body,
+        segments: count.segments,
+        encoding: count.encoding,
+        ownerId,
+        planId,
+        stopId: stop.stopId,
+        idempotencyKey: key,
+        sendAfter,
+      });
       if (isUpdate) result.updates += 1;
       else result.queued += 1;
     }
   }
   if (result.queued + result.updates > 0) {
-    await trx('audit_log').insert({
-      practice_id: practiceId,
-      user_id: userId,
-      action: 'texts.queue',
-      entity: 'plan',
-      entity_id: planId,
-      detail: JSON.stringify(result),
-    });
+    await audit(trx, { practiceId, userId, action: 'texts.queue', entity: 'plan', entityId: planId, detail: result });
   }
   return result;
 }
@@ -206,18 +169,6 @@ export interface SendResult {
   failed: number;
 }
 
-interface DueRow {
-  id: number;
-  practice_id: number;
-  to_address: string;
-  body: string;
-  owner_id: number | null;
-  stop_id: number | null;
-  time_zone: string;
-  opted_out_at: Date | null;
-  window_end_at: Date | null;
-}
-
 /**
  * Sends the queued outbound texts that are due at `now`: outside quiet hours on the practice's clock
  * (a text due inside them gets send_after = the end of the span, 08:00 by default), not to an owner who
@@ -228,52 +179,38 @@ interface DueRow {
 export async function sendDueMessages(db: Knex, now: Date = new Date(), options: { limit?: number; planId?: number } = {}): Promise<SendResult> {
   const limit = options.limit ?? 200;
   const result: SendResult = { sent: 0, deferred: 0, suppressed: 0, failed: 0 };
-  const rows: DueRow[] = await db('messages as m')
-    .join('practices as p', 'p.id', 'm.practice_id')
-    .leftJoin('owners as o', 'o.id', 'm.owner_id')
-    .leftJoin('stops as s', 's.id', 'm.stop_id')
-    .where({ 'm.channel': 'sms', 'm.direction': 'out', 'm.state': 'queued' })
-    .whereNull('m.provider_id')
-    .andWhere((q) => q.whereNull('m.send_after').orWhere('m.send_after', '<=', now))
-    .modify((q) => {
-      if (options.planId) q.andWhere('m.plan_id', options.planId);
-    })
-    .select('m.id', 'm.practice_id', 'm.to_address', 'm.body', 'm.owner_id', 'm.stop_id', 'p.time_zone', 'o.opted_out_at', 's.window_end_at')
-    .orderBy('m.id')
-    .limit(limit);
+  const rows = await listDueTexts(db, now, { limit, planId: options.planId });
   const settingsByPractice = new Map<number, Awaited<ReturnType<typeof getTextSettings>>>();
   for (const row of rows) {
     const claim = `claim:${randomUUID()}`;
-    const claimed = await db('messages').where({ id: row.id, state: 'queued' }).whereNull('provider_id').update({ provider_id: claim });
-    if (claimed !== 1) continue;
-    const mine = () => db('messages').where({ id: row.id, provider_id: claim });
-    if (row.opted_out_at) {
-      await mine().update({ state: 'suppressed', provider_id: null, error: 'Owner opted out', updated_at: db.fn.now(3) });
+    if (!(await claimText(db, row.id, claim))) continue;
+    if (row.optedOutAt) {
+      await closeClaimedText(db, row.id, claim, 'suppressed', 'Owner opted out');
       result.suppressed += 1;
       continue;
     }
-    if (row.window_end_at && new Date(row.window_end_at).getTime() <= now.getTime()) {
-      await mine().update({ state: 'suppressed', provider_id: null, error: 'The window had passed before the text could go', updated_at: db.fn.now(3) });
+    if (row.windowEndAt && row.windowEndAt.getTime() <= now.getTime()) {
+      await closeClaimedText(db, row.id, claim, 'suppressed', 'The window had passed before the text could go');
       result.suppressed += 1;
       continue;
     }
-    let settings = settingsByPractice.get(row.practice_id);
+    let settings = settingsByPractice.get(row.practiceId);
     if (!settings) {
-      settings = await getTextSettings(db, row.practice_id);
-      settingsByPractice.set(row.practice_id, settings);
+      settings = await getTextSettings(db, row.practiceId);
+      settingsByPractice.set(row.practiceId, settings);
     }
-    const allowedAt = earliestSendAt(now, row.time_zone, quietHoursOf(settings));
+    const allowedAt = earliestSendAt(now, row.timeZone, quietHoursOf(settings));
     if (allowedAt.getTime() > now.getTime()) {
-      await mine().update({ provider_id: null, send_after: allowedAt, updated_at: db.fn.now(3) });
+      await deferClaimedText(db, row.id, claim, allowedAt);
       result.deferred += 1;
       continue;
     }
     try {
-      const sent = await sendSms(row.to_address, row.body);
-      await mine().update({ state: 'sent', provider_id: sent.sid.slice(0, 64), from_address: sent.from, sent_at: now, error: null, updated_at: db.fn.now(3) });
+      const sent = await sendSms(row.to, row.body);
+      await markClaimedTextSent(db, row.id, claim, { providerId: sent.sid.slice(0, 64), from: sent.from, sentAt: now });
       result.sent += 1;
     } catch (e) {
-      await mine().update({ state: 'failed', provider_id: null, error: (e instanceof Error ? e.message : 'send failed').slice(0, 250), updated_at: db.fn.now(3) });
+      await closeClaimedText(db, row.id, claim, 'failed', (e instanceof Error ? e.message : 'send failed').slice(0, 250));
       result.failed += 1;
     }
   }

@@ -4,6 +4,10 @@
  * open a published plan, and a mail cannot be taken back if the transaction rolled back.
  */
 import type { Knex } from 'knex';
+import { listPlanMails } from '../db/messages.ts';
+import { getPlan } from '../db/plans.ts';
+import { getPractice } from '../db/practices.ts';
+import { listPlanFarrierAccounts } from '../db/users.ts';
 import { sendMail } from './mail.ts';
 import { dayText } from './local-time.ts';
 
@@ -26,38 +30,32 @@ function appBase(): string {
  * re-publish (a later published_at) mails again, worded as a change.
  */
 export async function emailDaySheets(db: Knex, { practiceId, planId }: { practiceId: number; planId: number }): Promise<DaySheetMailResult> {
-  const plan = await db('plans').where({ id: planId, practice_id: practiceId }).first<{ plan_date: string; state: string; published_at: Date | null; version: number } | undefined>();
+  const plan = await getPlan(db, practiceId, planId);
   if (!plan || plan.state !== 'published') throw new Error(`plan ${planId} is not a published plan of practice ${practiceId}`);
-  const practice = await db('practices').where({ id: practiceId }).first<{ name: string; time_zone: string }>();
-  const routes: { farrier_id: number; farrier_name: string; stops: number; email: string | null; user_name: string | null }[] = await db('routes as r')
-    .join('farriers as f', 'f.id', 'r.farrier_id')
-    .leftJoin('users as u', function () {
-      this.on('u.farrier_id', '=', 'r.farrier_id').andOn('u.practice_id', '=', 'r.practice_id');
-    })
-    .where('r.plan_id', planId)
-    .select('r.farrier_id', 'f.name as farrier_name', 'u.email', 'u.name as user_name')
-    .select(db.raw('(SELECT COUNT(*) FROM stops s WHERE s.route_id = r.id) AS stops'));
-  const earlierMails = await db('messages').where({ plan_id: planId, channel: 'email' }).select('to_address', 'created_at');
-  const publishedAt = plan.published_at ? new Date(plan.published_at).getTime() : 0;
-  const earlierPublication = earlierMails.some((m) => new Date(m.created_at).getTime() < publishedAt);
+  // The plan belongs to the practice, so the practice row is there.
+  const practice = (await getPractice(db, practiceId))!;
+  const routes = await listPlanFarrierAccounts(db, planId);
+  const earlierMails = await listPlanMails(db, planId);
+  const publishedAt = plan.publishedAt ? plan.publishedAt.getTime() : 0;
+  const earlierPublication = earlierMails.some((m) => m.createdAt.getTime() < publishedAt);
   const result: DaySheetMailResult = { sent: 0, failed: 0, noAccount: 0, alreadySent: 0 };
-  const day = dayText(plan.plan_date, practice.time_zone);
+  const day = dayText(plan.date, practice.timeZone);
   for (const r of routes) {
     if (!r.email) {
       result.noAccount += 1;
       continue;
     }
-    if (earlierMails.some((m) => m.to_address === r.email && new Date(m.created_at).getTime() >= publishedAt)) {
+    if (earlierMails.some((m) => m.to === r.email && m.createdAt.getTime() >= publishedAt)) {
       result.alreadySent += 1;
       continue;
     }
-    const link = `${appBase()}/day/${plan.plan_date}`;
-    const first = (r.user_name ?? r.farrier_name).split(' ')[0];
+    const link = `${appBase()}/day/${plan.date}`;
+    const first = (r.userName ?? r.farrierName).split(' ')[0];
     const subject = `${earlierPublication ? 'Changed: your' : 'Your'} day sheet for ${day}`;
     const text = [
       `Hello ${first},`,
       '',
-      `${earlierPublication ? 'Your day has changed. ' : ''}Your day sheet for ${day} is ready: ${Number(r.stops)} stop${Number(r.stops) === 1 ? '' : 's'}, with directions and horse notes.`,
+      `${earlierPublication ? 'Your day has changed. ' : ''}Your day sheet for ${day} is ready: ${r.stops} stop${r.stops === 1 ? '' : 's'}, with directions and horse notes.`,
       '',
       link,
       '',

@@ -1,5 +1,6 @@
 import nodemailer, { type Transporter } from 'nodemailer';
 import type { Knex } from 'knex';
+import { insertMail } from '../db/messages.ts';
 
 let transport: Transporter | undefined;
 
@@ -36,19 +37,16 @@ export async function sendMail(
     sent = false;
     error = e instanceof Error ? e.message.slice(0, 250) : 'send failed';
   }
-  const [id] = await db('messages').insert({
-    practice_id: mail.practiceId,
-    channel: 'email',
-    direction: 'out',
-    to_address: mail.to,
-    from_address: MAIL_FROM,
+  const id = await insertMail(db, {
+    practiceId: mail.practiceId,
+    to: mail.to,
+    from: MAIL_FROM,
     subject: mail.subject,
     body: mail.text,
     state: sent ? 'sent' : 'failed',
-    plan_id: mail.planId ?? null,
-    provider_id: providerId,
-    sent_at: sent ? db.fn.now() : null,
+    planId: mail.planId ?? null,
+    providerId,
     error,
   });
-  return { id: Number(id), sent };
+  return { id, sent };
 }

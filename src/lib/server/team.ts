@@ -3,7 +3,7 @@ import { db } from './db.ts';
 import { badRequest, conflict, HttpError } from './http.ts';
 import { hashPassword, newToken, sha256Hex, type SessionUser } from './auth.ts';
 import { farrierBelongs, insertInvite, markInviteAccepted, openInviteForUpdate } from '../db/invites.ts';
-import { findUserByEmail } from '../db/users.ts';
+import { findUserByEmail, insertUser } from '../db/users.ts';
 import { audit } from '../db/audit.ts';
 import { sendMail } from '../messaging/mail.ts';
 import type { InviteInput } from '../../schemas/auth.ts';
@@ -56,16 +56,16 @@ export async function acceptInvite(token: string, password: string, name?: strin
   return db().transaction(async (trx) => {
     const open = await openInviteForUpdate(trx, sha256Hex(token));
     if (!open) throw new HttpError(404, 'not_found', 'This invitation link is not valid any more');
-    const [userId] = await trx('users').insert({
-      practice_id: open.practiceId,
+    const userId = await insertUser(trx, {
+      practiceId: open.practiceId,
       email: open.email,
       name: name ?? open.name,
-      password_hash: passwordHash,
+      passwordHash,
       role: open.role,
-      farrier_id: open.farrierId,
+      farrierId: open.farrierId,
     });
     await markInviteAccepted(trx, open.id);
-    await audit(trx, { practiceId: open.practiceId, userId: Number(userId), action: 'invite.accept', entity: 'user', entityId: Number(userId) });
-    return { userId: Number(userId), email: open.email };
+    await audit(trx, { practiceId: open.practiceId, userId, action: 'invite.accept', entity: 'user', entityId: userId });
+    return { userId, email: open.email };
   });
 }
