@@ -118,6 +118,12 @@ describe('the day sheet in a browser', () => {
       await context.setOffline(false);
       await page.evaluate(() => window.dispatchEvent(new Event('online')));
       await page.waitForFunction(() => document.querySelector('[data-testid="sync-status"]')?.textContent?.includes('all marks sent'), undefined, { timeout: 30_000 });
+      // Online, "Day sheet" (/day) passes through the worker to the server's redirect to today.
+      const today = await page.goto(`${APP_URL}/day`);
+      expect(today?.status()).toBe(200);
+      expect(new URL(page.url()).pathname).toMatch(/^\/day\/\d{4}-\d{2}-\d{2}$/);
+      await page.goto(`${APP_URL}/day/${DATE}`);
+      await hydrated(page);
       // A reload replays nothing twice: still one visit log per stop.
       await page.reload();
       await hydrated(page);
