@@ -45,7 +45,7 @@ function Form({ horse, owners, barns, workTypes, barnId }: { horse: HorseInput |
     <form onSubmit={submit} noValidate className="card space-y-3 p-4" aria-label={horse ? 'Edit horse' : 'Add horse'}>
       {errors._ && <p role="alert" className="rounded-lg bg-ember-50 px-3 py-2 text-sm text-ember-800">{errors._}</p>}
       {saved && <p role="status" className="rounded-lg bg-slateblue-50 px-3 py-2 text-sm">Horse saved.</p>}
-      <div className="grid gap-3 sm:grid-cols-2">
+      <div className="grid gap-3 sm:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
         <FormField id="horse-name" label="Name" error={errors.name}><input id="horse-name" className="field" value={f.name} onChange={(e) => setF({ ...f, name: e.target.value })} /></FormField>
         <FormField id="horse-owner" label="Owner" error={errors.ownerId}>
           <select id="horse-owner" className="field" value={f.ownerId} onChange={(e) => setF({ ...f, ownerId: e.target.value })}>
@@ -59,10 +59,9 @@ function Form({ horse, owners, barns, workTypes, barnId }: { horse: HorseInput |
             {barns.map((b) => <option key={b.id} value={b.id}>{b.name}</option>)}
           </select>
         </FormField>
-        <div className="grid grid-cols-[6rem_1fr] gap-3">
-          <FormField id="horse-cycle" label="Cycle (weeks)" error={errors.cycleWeeks}><input id="horse-cycle" type="number" min={1} max={26} className="field font-mono" value={f.cycleWeeks} onChange={(e) => setF({ ...f, cycleWeeks: e.target.value })} /></FormField>
-          <FormField id="horse-last" label="Last visit" error={errors.lastVisitOn}><input id="horse-last" type="date" className="field font-mono" value={f.lastVisitOn} onChange={(e) => setF({ ...f, lastVisitOn: e.target.value })} /></FormField>
-        </div>
+        <FormField id="horse-last" label="Last visit" error={errors.lastVisitOn}><input id="horse-last" type="date" className="field font-mono" value={f.lastVisitOn} onChange={(e) => setF({ ...f, lastVisitOn: e.target.value })} /></FormField>
+        <FormField id="horse-cycle" label="Cycle (weeks)" error={errors.cycleWeeks}><input id="horse-cycle" type="number" min={1} max={26} className="field font-mono" value={f.cycleWeeks} onChange={(e) => setF({ ...f, cycleWeeks: e.target.value })} /></FormField>
+        <FormField id="horse-shoe" label="Shoe size" error={errors.shoeSize}><input id="horse-shoe" className="field font-mono" value={f.shoeSize} onChange={(e) => setF({ ...f, shoeSize: e.target.value })} /></FormField>
       </div>
       <fieldset>
         <legend className="label">Usual work <span className="font-mono normal-case">({minutes} min)</span></legend>
@@ -76,10 +75,7 @@ function Form({ horse, owners, barns, workTypes, barnId }: { horse: HorseInput |
         </div>
         {errors.workTypeIds && <p className="field-error">{errors.workTypeIds}</p>}
       </fieldset>
-      <div className="grid gap-3 sm:grid-cols-[10rem_1fr]">
-        <FormField id="horse-shoe" label="Shoe size" error={errors.shoeSize}><input id="horse-shoe" className="field font-mono" value={f.shoeSize} onChange={(e) => setF({ ...f, shoeSize: e.target.value })} /></FormField>
-        <FormField id="horse-notes" label="Notes (pads, behaviour, vet's advice)" error={errors.notes}><textarea id="horse-notes" rows={3} className="field" value={f.notes} onChange={(e) => setF({ ...f, notes: e.target.value })} /></FormField>
-      </div>
+      <FormField id="horse-notes" label="Notes (pads, behaviour, vet's advice)" error={errors.notes}><textarea id="horse-notes" rows={3} className="field" value={f.notes} onChange={(e) => setF({ ...f, notes: e.target.value })} /></FormField>
       <label className="flex items-center gap-2 text-sm"><input type="checkbox" checked={f.needsSecondPerson} onChange={(e) => setF({ ...f, needsSecondPerson: e.target.checked })} /> Needs a second person to hold</label>
       {f.needsSecondPerson && <p className="caution">Kick risk: plan a holder for this horse. Sedation is given only by a veterinarian.</p>}
       <div className="flex flex-wrap items-start justify-between gap-4">

@@ -143,7 +143,7 @@ function ReviewBody({ data, mode, farrierId, onFarrier }: { data: ReviewResult; 
         <Tile label="Team hours, actual" value={formatMinutes(t.actualMinutes)} note={`planned ${formatMinutes(t.plannedMinutes)}`} />
         <Tile label="Overtime, actual" value={formatMinutes(t.overtimeMinutes)} note={`${money(t.overtimeCost)} · planned ${formatMinutes(t.plannedOvertimeMinutes)}`} />
         <Tile label={`Distance, actual (${unit})`} value={displayFigure({ key: 'actualDistance', label: '', kind: 'distance', group: 'Distance' }, t.actualDistance, data.currency)} note={`${money(t.mileageCost)} at ${money(data.mileageRate)}/${unit}`} />
-        <Tile label="Revenue" value={money(t.revenue)} note={`${t.horsesDone} horses done · ${t.stopsSkipped} stops skipped`} />
+        <Tile label="Revenue" value={money(t.revenue)} note={`${t.horsesDone} ${t.horsesDone === 1 ? 'horse' : 'horses'} done · ${t.stopsSkipped} ${t.stopsSkipped === 1 ? 'stop' : 'stops'} skipped`} />
       </section>
 
       <p className="text-xs text-slateblue-600">
