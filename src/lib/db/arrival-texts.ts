@@ -1,12 +1,10 @@
-import type { Knex } from 'knex';
+import type { Db } from './connection.ts';
 
 /**
  * What arrival texts for a published plan are built from: each stop with its barn and farrier, and
  * the owners of the horses at each stop with their phone and text consent. The stop's window is
  * written back so the day sheet and the board show the window the owner was told.
  */
-
-type Db = Knex | Knex.Transaction;
 
 export interface TextStop {
   stopId: number;

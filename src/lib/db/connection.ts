@@ -1,5 +1,8 @@
 import knexFactory, { type Knex } from 'knex';
 
+/** What a query module runs on: the app's knex or the transaction of a multi-step write. */
+export type Db = Knex | Knex.Transaction;
+
 /**
  * knex settings for a MariaDB URL. Times travel as UTC (`timezone: 'Z'`), DATE columns come back as
  * 'YYYY-MM-DD' strings (a plan day is a calendar day, not an instant), and DECIMAL as numbers.

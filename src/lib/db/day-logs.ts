@@ -1,11 +1,10 @@
 import type { Knex } from 'knex';
+import type { Db } from './connection.ts';
 
 /**
  * day_logs: one row per farrier and working day, written by the day sheet's "Start the day" and "Back
  * home" marks (or a first stop mark) and by the office's corrections, read by the sheet and the review.
  */
-
-type Db = Knex | Knex.Transaction;
 
 /** A day log as the API and the day sheet show it. */
 export interface DayLogView {

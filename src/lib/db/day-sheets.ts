@@ -1,4 +1,5 @@
 import type { Knex } from 'knex';
+import type { Db } from './connection.ts';
 
 /**
  * What one farrier's day sheet reads besides the plan and route: the farrier's home, the stops with
@@ -6,8 +7,6 @@ import type { Knex } from 'knex';
  * visits are reached through a route the caller has already held to the practice, so those lookups
  * go by route, stop or job id alone.
  */
-
-type Db = Knex | Knex.Transaction;
 
 /** A stop of the route with its barn; `barnOwnerId` is the barn's owner, whom the sheet lists first. */
 export interface SheetStop {

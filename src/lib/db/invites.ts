@@ -77,8 +77,3 @@ export async function openInviteForUpdate(trx: Knex.Transaction, tokenHash: stri
 export async function markInviteAccepted(trx: Knex.Transaction, id: number): Promise<void> {
   await trx('invites').where({ id }).update({ accepted_at: trx.fn.now() });
 }
-
-export async function farrierBelongs(db: Knex | Knex.Transaction, practiceId: number, farrierId: number): Promise<boolean> {
-  const row = await db('farriers').where({ id: farrierId, practice_id: practiceId }).first('id');
-  return Boolean(row);
-}

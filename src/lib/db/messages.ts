@@ -1,4 +1,4 @@
-import type { Knex } from 'knex';
+import type { Db } from './connection.ts';
 import type { LoggedMessage } from '../messaging/message-log.ts';
 import type { SmsEncoding } from '../messaging/segments.ts';
 
@@ -8,8 +8,6 @@ import type { SmsEncoding } from '../messaging/segments.ts';
  * `claim:` token into provider_id before it calls the provider, and every later change to that text
  * is conditional on still holding the claim.
  */
-
-type Db = Knex | Knex.Transaction;
 
 /** An e-mail as sent (or tried): the log row is written after the attempt, in its final state. */
 export async function insertMail(

@@ -1,12 +1,10 @@
-import type { Knex } from 'knex';
+import type { Db } from './connection.ts';
 
 /**
  * Queries behind dispatch: what a day's plan is built from (farriers working, open jobs, barns) and the
  * stored plan itself (plans, routes, stops, stop_jobs, owner messages). Every query is held to one
  * practice. Times are UTC Date objects here; the dispatch layer turns them into local ISO strings.
  */
-
-type Db = Knex | Knex.Transaction;
 
 export interface DayFarrier {
   id: number;

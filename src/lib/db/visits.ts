@@ -1,4 +1,5 @@
 import type { Knex } from 'knex';
+import type { Db } from './connection.ts';
 
 /**
  * Stop marks from the day sheet and what they write: visit_marks keeps every mark as the phone sent it,
@@ -6,8 +7,6 @@ import type { Knex } from 'knex';
  * revenue of a done stop, and the jobs and horses the marks move on. Rows below a stop are reached
  * through a stop the caller has already held to the practice, so those go by stop, job or log id alone.
  */
-
-type Db = Knex | Knex.Transaction;
 
 export type VisitState = 'arrived' | 'done' | 'skipped';
 

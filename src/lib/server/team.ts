@@ -2,7 +2,8 @@ import { addDays } from 'date-fns';
 import { db } from './db.ts';
 import { badRequest, conflict, HttpError } from './http.ts';
 import { hashPassword, newToken, sha256Hex, type SessionUser } from './auth.ts';
-import { farrierBelongs, insertInvite, markInviteAccepted, openInviteForUpdate } from '../db/invites.ts';
+import { existsInPractice } from '../db/records-lock.ts';
+import { insertInvite, markInviteAccepted, openInviteForUpdate } from '../db/invites.ts';
 import { findUserByEmail, insertUser } from '../db/users.ts';
 import { audit } from '../db/audit.ts';
 import { sendMail } from '../messaging/mail.ts';
@@ -18,7 +19,7 @@ export async function invite(lead: SessionUser, input: InviteInput, appUrl: stri
   const knex = db();
   if (await findUserByEmail(knex, input.email)) throw conflict('That e-mail address already has an account');
   const farrierId = input.farrierId ?? null;
-  if (farrierId !== null && !(await farrierBelongs(knex, lead.practiceId, farrierId))) {
+  if (farrierId !== null && !(await existsInPractice(knex, 'farriers', lead.practiceId, farrierId))) {
     throw badRequest('Unknown farrier', { farrierId: 'No such farrier in this practice' });
   }
   if (input.role === 'farrier' && farrierId === null) {
