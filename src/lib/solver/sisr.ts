@@ -1,6 +1,7 @@
 import type { Model } from './model';
 import type { Rng } from './random';
 import type { State } from './state';
+import type { RouteEval } from './route-eval';
 
 /**
  * Slack Induction by String Removals (Christiaens & Vanden Berghe, Transportation Science 2020,
@@ -157,6 +158,14 @@ export function putBack(s: State, rng: Rng, p: SisrParams, removed: number[], le
   const first = removed.slice(), rest: number[] = [];
   for (const j of leftOut) (s.m.mandatory[j] ? first : rest).push(j);
   place(first);
+  // a mandatory job that found no room takes the place of a planned optional job, which then
+  // looks for room elsewhere
+  const ejected: number[] = [];
+  for (const j of first) if (s.routeOf[j] < 0 && s.m.mandatory[j]) {
+    const o = ejectFor(s, j);
+    if (o >= 0) ejected.push(o);
+  }
+  if (ejected.length) place(ejected);
   if (!rest.length) return;
   // an optional job left out is offered only the routes this step changed: each other route it was
   // offered, as a rule, in the step that last changed it (or when the job itself went out), and it
@@ -165,6 +174,62 @@ export function putBack(s: State, rng: Rng, p: SisrParams, removed: number[], le
   const changed = new Uint8Array(s.m.nFarriers);
   for (const f of s.touched) changed[f] = 1;
   place(rest, changed);
+}
+
+/**
+ * Routes in which a mandatory job could not take any optional job's place, by the route's evaluation
+ * (a route's `RouteEval` is replaced whenever the route changes and shared by clones while it does
+ * not), so that a job no exchange can place is not re-tried in every step against the same routes.
+ */
+const noExchange = new WeakMap<Model, Map<number, RouteEval[]>>();
+const EXCHANGE = new Float64Array(16);
+
+/**
+ * Puts mandatory job j, which has no room of its own, in the place of the planned optional job whose
+ * removal plus j's insertion in the same route costs least (the optional job's leave-out cost
+ * counted). Returns the optional job taken out, or −1 when no such exchange is feasible.
+ */
+export function ejectFor(s: State, j: number): number {
+  const m = s.m, N = m.nJobs, F = m.nFarriers, P = EXCHANGE;
+  let tried = noExchange.get(m);
+  if (!tried) noExchange.set(m, (tried = new Map()));
+  let seen = tried.get(j);
+  if (!seen) tried.set(j, (seen = new Array<RouteEval>(F)));
+  let best = Infinity, bo = -1, bf = -1, bq = -1;
+  for (let f = 0; f < F; f++) {
+    if (!m.eligible[f * N + j] || seen[f] === s.evals[f]) continue;
+    const r = s.routes[f], n = r.length, old = s.evals[f].cost;
+    let feasible = false;
+    for (let k = 0; k < n; k++) {
+      const o = r[k];
+      if (m.mandatory[o]) continue;
+      const keep = m.leaveOutCost[o] - old;
+      // j at position q of the route without o (q = 0..n−1), as pieces of the current route
+      for (let q = 0; q < n; q++) {
+        let i = 0;
+        if (q <= k) {
+          if (q > 0) { P[i++] = f; P[i++] = 0; P[i++] = q; P[i++] = 0; }
+          P[i++] = -1; P[i++] = j; P[i++] = 0; P[i++] = 0;
+          if (k > q) { P[i++] = f; P[i++] = q; P[i++] = k; P[i++] = 0; }
+          if (n > k + 1) { P[i++] = f; P[i++] = k + 1; P[i++] = n; P[i++] = 0; }
+        } else {
+          if (k > 0) { P[i++] = f; P[i++] = 0; P[i++] = k; P[i++] = 0; }
+          P[i++] = f; P[i++] = k + 1; P[i++] = q + 1; P[i++] = 0;
+          P[i++] = -1; P[i++] = j; P[i++] = 0; P[i++] = 0;
+          if (n > q + 1) { P[i++] = f; P[i++] = q + 1; P[i++] = n; P[i++] = 0; }
+        }
+        const c = s.costOf(f, P.subarray(0, i));
+        if (c === Infinity) continue;
+        feasible = true;
+        if (c + keep < best) { best = c + keep; bo = o; bf = f; bq = q; }
+      }
+    }
+    if (!feasible) seen[f] = s.evals[f];
+  }
+  if (bo < 0) return -1;
+  s.remove(bo);
+  s.insert(j, bf, bq);
+  return bo;
 }
 
 /**

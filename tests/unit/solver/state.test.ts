@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { buildModel } from '../../../src/lib/solver/model';
 import { createRng } from '../../../src/lib/solver/random';
 import { evalRoute } from '../../../src/lib/solver/route-eval';
-import { regretConstruct, regretRecreate, DEFAULT_SISR, ruinAround, leftOutCandidates, putBack } from '../../../src/lib/solver/sisr';
+import { regretConstruct, regretRecreate, DEFAULT_SISR, ruinAround, leftOutCandidates, putBack, ejectFor } from '../../../src/lib/solver/sisr';
 import { materialize, State } from '../../../src/lib/solver/state';
 import { checkSolution } from '../../../src/lib/solver/checker';
 import { randomProblem } from './helpers';
@@ -174,5 +174,51 @@ describe('a mandatory job left out', () => {
       expect(s.routes[0]).toEqual([1]);
       expect([...s.unassigned]).toEqual([0]);
     }
+  });
+});
+
+describe('a mandatory job with no room anywhere', () => {
+  // one farrier whose three-hour shift holds two of the hour-long jobs: two optional ones are planned
+  const H = 3600;
+  const day = (mandatorySec: number) => createProblem({
+    locations: 4,
+    durationSec: [[0, 600, 600, 600], [600, 0, 600, 600], [600, 600, 0, 600], [600, 600, 600, 0]],
+    distanceM: [[0, 9000, 9000, 9000], [9000, 0, 9000, 9000], [9000, 9000, 0, 9000], [9000, 9000, 9000, 0]],
+    farriers: [{ id: 'f1', startLocation: 0, endLocation: 0, shiftStartSec: 8 * H, shiftEndSec: 11 * H, breakSec: 0, breakWindow: null, normalWorkSec: 3 * H, maxOvertimeSec: 0, costPerDriveSec: 1, costPerMetre: 0.04, costPerOvertimeSec: 2, qualified: false, hasForge: true }],
+    barns: [1, 2, 3].map((l) => ({ id: `b${l}`, location: l, windows: [{ startSec: 7 * H, endSec: 18 * H }], setupSec: 300 })),
+    jobs: [
+      { id: 'dear', barnId: 'b1', durationSec: H, optional: true, penalty: 9000 },
+      { id: 'cheap', barnId: 'b2', durationSec: H, optional: true, penalty: 5000 },
+      { id: 'mandatory', barnId: 'b3', durationSec: mandatorySec },
+    ],
+  });
+  const planned = (mandatorySec: number) => {
+    const s = new State(buildModel(day(mandatorySec)));
+    s.insert(0, 0, 0);
+    s.insert(1, 0, 1);
+    s.recomputeCost();
+    return s;
+  };
+
+  it('takes the place of the planned optional job that is cheapest to leave out', () => {
+    for (const regret of [false, true]) {
+      const s = planned(H);
+      // nothing was ruined: the step only offers the mandatory job, which does not fit beside both
+      expect(s.bestPosition(2, 0, 0, createRng(1).next).delta).toBe(Infinity);
+      putBack(s, createRng(5), { ...DEFAULT_SISR, blinkRate: 0 }, [], [2], regret);
+      expect(s.routeOf[2]).toBe(0);
+      expect(s.routeOf[0]).toBe(0);
+      expect([...s.unassigned]).toEqual([1]);
+      expect(evalRoute(s.m, 0, s.routes[0]).feasible).toBe(true);
+    }
+  });
+
+  it('stays out, and the plan is unchanged, when no exchange makes room for it', () => {
+    const s = planned(2.5 * H);
+    const before = s.routes[0].slice();
+    expect(ejectFor(s, 2)).toBe(-1);
+    putBack(s, createRng(5), { ...DEFAULT_SISR, blinkRate: 0 }, [], [2], false);
+    expect(s.routes[0]).toEqual(before);
+    expect([...s.unassigned]).toEqual([2]);
   });
 });
