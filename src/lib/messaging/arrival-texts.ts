@@ -6,7 +6,10 @@
  * Idempotency key of a text: `arrival:{practiceId}:{planDate}:b{barnId}:o{ownerId}:{startMin}-{endMin}`
  * (window ends in minutes since the epoch, UTC). The prefix names one owner's visit at one barn on one
  * day whatever the stop's row id (re-publishing may write new stop rows), and the suffix is the window:
- * publishing the same window again inserts nothing, a new window is a new key.
+ * publishing the same window again inserts nothing, a new window is a new key. When the plan visits
+ * the owner's horses at one barn more than once that day (the barn's horses split between farriers,
+ * or one farrier back later), the visits are counted in order of arrival and the second and later
+ * ones carry `v{n}:` after the owner, so each visit gets its own text instead of replacing another's.
  */
 import type { Knex } from 'knex';
 import { randomUUID } from 'node:crypto';
@@ -46,9 +49,14 @@ export interface QueueResult {
   notTexted: number;
 }
 
-/** Prefix of the keys of one owner's visit to one barn on one day. */
-export function visitKeyPrefix(practiceId: number, planDate: string, barnId: number, ownerId: number): string {
-  return `arrival:${practiceId}:${planDate}:b${barnId}:o${ownerId}:`;
+/** Prefix of the keys of one owner's visit to one barn on one day (`visit`: the day's first, second, … there). */
+export function visitKeyPrefix(practiceId: number, planDate: string, barnId: number, ownerId: number, visit = 1): string {
+  return `arrival:${practiceId}:${planDate}:b${barnId}:o${ownerId}:${visit > 1 ? `v${visit}:` : ''}`;
+}
+
+/** Whether a key is this very visit's (a first visit's prefix is also the start of its later visits' keys). */
+function ofVisit(key: string, prefix: string): boolean {
+  return /^\d+-\d+$/.test(key.slice(prefix.length));
 }
 
 /** The full idempotency key of a text for a window. */
@@ -88,6 +96,17 @@ export async function queueArrivalTexts(
   const horses = await listStopHorses(trx, stops.map((s) => s.stopId));
 
   const result: QueueResult = { queued: 0, updates: 0, unchanged: 0, notTexted: 0 };
+  // the k-th visit of the day to an owner's horses at one barn, in order of arrival
+  const visits = new Map<string, number>();
+  const visitOf = new Map<string, number>();
+  for (const stop of [...stops].sort((a, b) => a.arrivalAt.getTime() - b.arrivalAt.getTime() || a.stopId - b.stopId)) {
+    for (const ownerId of new Set(horses.filter((h) => h.stopId === stop.stopId).map((h) => h.ownerId))) {
+      const k = `${stop.barnId}:${ownerId}`;
+      const n = (visits.get(k) ?? 0) + 1;
+      visits.set(k, n);
+      visitOf.set(`${stop.stopId}:${ownerId}`, n);
+    }
+  }
   for (const stop of stops) {
     const window = arrivalWindow(stop.arrivalAt, stop.position, windowSettingsOf(settings));
     await setStopWindow(trx, stop.stopId, window);
@@ -104,9 +123,9 @@ export async function queueArrivalTexts(
         result.notTexted += 1;
         continue;
       }
-      const prefix = visitKeyPrefix(practiceId, plan.date, stop.barnId, ownerId);
+      const prefix = visitKeyPrefix(practiceId, plan.date, stop.barnId, ownerId, visitOf.get(`${stop.stopId}:${ownerId}`));
       const key = arrivalKey(prefix, window);
-      const earlier = await listVisitTexts(trx, prefix);
+      const earlier = (await listVisitTexts(trx, prefix)).filter((m) => ofVisit(m.idempotencyKey, prefix));
       // A text with this very key exists in any state (even failed or suppressed): never a second one.
       const told = earlier.find((m) => m.state === 'sent' || m.state === 'delivered');
       const pending = earlier.filter((m) => m.state === 'queued' && m.idempotencyKey !== key);

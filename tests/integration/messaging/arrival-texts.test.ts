@@ -219,3 +219,37 @@ describe('text templates', () => {
     expect((await call('PUT', '/api/templates', { cookie: await sessionCookie('dispatcher@other.test'), body: current })).status).toBe(403);
   });
 });
+
+describe('an owner whose horses at one barn are visited twice that day', () => {
+  it('gets a text for each visit: the second does not replace the first', async () => {
+    // A second stop at Ada's barn late in the day (the barn's horses split between two visits), with
+    // a third horse of hers.
+    const stopsBefore = await knex('stops').where({ route_id: day.routeId }).count({ n: '*' });
+    const arrival = new Date(`${DATE}T20:07:00Z`);
+    const [stopId] = await knex('stops').insert({
+      practice_id: 1, route_id: day.routeId, position: Number(stopsBefore[0]!.n) + 1, barn_id: day.barnIds[0],
+      arrival_at: arrival, start_at: new Date(arrival.getTime() + 10 * 60_000), departure_at: new Date(arrival.getTime() + 70 * 60_000),
+      leg_drive_seconds: 20 * 60, leg_distance_m: 14_000,
+    });
+    const [horseId] = await knex('horses').insert({ practice_id: 1, owner_id: day.ownerIds[0], barn_id: day.barnIds[0], name: 'Juniper', cycle_weeks: 6 });
+    const [jobId] = await knex('jobs').insert({ practice_id: 1, horse_id: horseId, minutes: 45, due_on: DATE, state: 'booked' });
+    await knex('stop_jobs').insert({ stop_id: stopId, job_id: jobId, plan_id: day.planId, position: 0 });
+
+    const firstVisit = visitKeyPrefix(1, DATE, day.barnIds[0]!, day.ownerIds[0]!);
+    const secondVisit = visitKeyPrefix(1, DATE, day.barnIds[0]!, day.ownerIds[0]!, 2);
+    expect(secondVisit).not.toBe(firstVisit);
+    const before = await knex('messages').where('idempotency_key', 'like', `${firstVisit}%`).orderBy('id').select('id', 'state');
+    const result = await knex.transaction((trx) => queueArrivalTexts(trx, { practiceId: 1, planId: day.planId, userId: null }, QUEUE_NOW));
+    expect(result.queued).toBe(1);
+    const second = await knex('messages').where('idempotency_key', 'like', `${secondVisit}%`).select('state', 'body', 'stop_id');
+    expect(second).toHaveLength(1);
+    expect(second[0]).toMatchObject({ state: 'queued', stop_id: Number(stopId) });
+    // Planned 20:07Z = 16:07 EDT → 16:00; the fifth stop of the day: 60 + 4 × 15 = 120 minutes.
+    expect(second[0].body).toContain('between 3:00pm and 5:00pm');
+    expect(second[0].body).toContain('Juniper');
+    expect(second[0].body).not.toContain('Marigold');
+    // The first visit's texts are as they were: none replaced, none added.
+    const after = await knex('messages').where('idempotency_key', 'like', `${firstVisit}%`).whereNot('idempotency_key', 'like', `${secondVisit}%`).orderBy('id').select('id', 'state');
+    expect(after).toEqual(before);
+  });
+});
