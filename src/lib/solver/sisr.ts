@@ -2,6 +2,7 @@ import type { Model } from './model';
 import type { Rng } from './random';
 import type { State } from './state';
 import type { RouteEval } from './route-eval';
+import { earliestIn } from './model';
 
 /**
  * Slack Induction by String Removals (Christiaens & Vanden Berghe, Transportation Science 2020,
@@ -206,6 +207,9 @@ export function ejectFor(s: State, j: number): number {
       const keep = m.leaveOutCost[o] - old;
       // j at position q of the route without o (q = 0..n−1), as pieces of the current route
       for (let q = 0; q < n; q++) {
+        // before o the route's first q jobs keep their times: once j cannot start after them in any
+        // of its windows (even without a break), no later position before o can work either
+        if (q <= k && q > 0 && earliestIn(m.windows[j], s.ready[f][q - 1] + m.arcSec[r[q - 1] * N + j]) === Infinity) { q = k; continue; }
         let i = 0;
         if (q <= k) {
           if (q > 0) { P[i++] = f; P[i++] = 0; P[i++] = q; P[i++] = 0; }
