@@ -41,8 +41,34 @@ export interface RouteEval {
 const INFEASIBLE: RouteEval = Object.freeze({ feasible: false, cost: Infinity, driveSec: 0, distanceM: 0, workSec: 0, overtimeSec: 0, startSec: 0, endSec: 0, load: 0 }) as RouteEval;
 const EMPTY: RouteEval = Object.freeze({ feasible: true, cost: 0, driveSec: 0, distanceM: 0, workSec: 0, overtimeSec: 0, startSec: 0, endSec: 0, load: 0 }) as RouteEval;
 
-/** Times and costs farrier f doing `jobs` in order; `feasible: false` (cost Infinity) on the first broken rule. */
-export function evalRoute(m: Model, f: number, jobs: ArrayLike<number>, withTimes = false): RouteEval {
+/**
+ * Per-route timing prefix that `evalRoute` fills for `State.refresh`: for each position k, the work
+ * start of job k and, after job k, whether the break is behind, the cumulative drive, distance and
+ * load. A candidate sequence that keeps a route's first jobs starts from these values; one that ends
+ * with the route's own tail stops re-timing as soon as a tail job starts exactly when it used to
+ * (with the same break status): everything after it is then unchanged.
+ */
+export interface RouteCache {
+  start: Float64Array;
+  breakDone: Uint8Array;
+  drive: Float64Array;
+  dist: Float64Array;
+  load: Float64Array;
+  breakStart: number;
+  breakAtHome: boolean;
+  end: number;
+}
+
+/** An empty timing prefix for a route of n jobs (arrays filled by `evalRoute`). */
+export function newRouteCache(n: number, shiftStart: number): RouteCache {
+  return { start: new Float64Array(n), breakDone: new Uint8Array(n), drive: new Float64Array(n), dist: new Float64Array(n), load: new Float64Array(n), breakStart: 0, breakAtHome: false, end: shiftStart };
+}
+
+/**
+ * Times and costs farrier f doing `jobs` in order; `feasible: false` (cost Infinity) on the first
+ * broken rule. With `cache`, also fills the route's timing prefix (meaningful only when feasible).
+ */
+export function evalRoute(m: Model, f: number, jobs: ArrayLike<number>, withTimes = false, cache?: RouteCache): RouteEval {
   const n = jobs.length;
   if (n === 0) return EMPTY;
   const N = m.nJobs;
@@ -69,6 +95,7 @@ export function evalRoute(m: Model, f: number, jobs: ArrayLike<number>, withTime
       const b = ready > bwS ? ready : bwS;
       if (b > bwE) return INFEASIBLE;
       breakStart = b; breakGap = k; breakDone = true;
+      if (cache) { cache.breakStart = b; cache.breakAtHome = k === 0; }
       s = earliestIn(m.windows[j], b + far.breakSec + arc);
     }
     if (s === Infinity) return INFEASIBLE;
@@ -76,6 +103,7 @@ export function evalRoute(m: Model, f: number, jobs: ArrayLike<number>, withTime
     if (starts) starts[k] = s;
     if (prev < 0) { drive += m.fromHomeTravel[f][j]; dist += m.fromHomeM[f][j]; }
     else { drive += m.travelSec[prev * N + j]; dist += m.arcM[prev * N + j]; }
+    if (cache) { cache.start[k] = s; cache.breakDone[k] = breakDone ? 1 : 0; cache.drive[k] = drive; cache.dist[k] = dist; cache.load[k] = load; }
     ready = s + m.serviceSec[j];
     prev = j;
   }
@@ -83,9 +111,11 @@ export function evalRoute(m: Model, f: number, jobs: ArrayLike<number>, withTime
     const b = ready > bwS ? ready : bwS;
     if (b > bwE) return INFEASIBLE;
     breakStart = b; breakGap = n; breakDone = true;
+    if (cache) cache.breakStart = b;
     ready = b + far.breakSec;
   }
   const end = ready + m.toHomeTravel[f][prev];
+  if (cache) cache.end = end;
   drive += m.toHomeTravel[f][prev];
   dist += m.toHomeM[f][prev];
   if (end > m.endLimit[f]) return INFEASIBLE;

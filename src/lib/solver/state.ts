@@ -1,5 +1,5 @@
 import type { Model } from './model';
-import { evalRoute, type RouteEval } from './route-eval';
+import { evalRoute, newRouteCache, type RouteCache, type RouteEval } from './route-eval';
 
 // Local copies of the window look-ups: this is the hottest code in the engine, and a cross-module
 // call goes through a binding getter once transpiled.
@@ -10,24 +10,6 @@ function earliestIn(w: Float64Array, t: number): number {
 function latestIn(w: Float64Array, t: number): number {
   for (let k = w.length - 2; k >= 0; k -= 2) if (t >= w[k]) return t > w[k + 1] ? w[k + 1] : t;
   return -Infinity;
-}
-
-/**
- * Per-route timing prefix kept by `State.refresh`: for each position k, the work start of job k and,
- * after job k, whether the break is behind, the cumulative drive, distance and load. A candidate
- * sequence that keeps a route's first jobs starts from these values; one that ends with the route's
- * own tail stops re-timing as soon as a tail job starts exactly when it used to (with the same break
- * status): everything after it is then unchanged.
- */
-export interface RouteCache {
-  start: Float64Array;
-  breakDone: Uint8Array;
-  drive: Float64Array;
-  dist: Float64Array;
-  load: Float64Array;
-  breakStart: number;
-  breakAtHome: boolean;
-  end: number;
 }
 
 /**
@@ -79,7 +61,7 @@ export class State {
     this.ready = this.routes.map(() => new Float64Array(0));
     this.latest = this.routes.map((_, f) => Float64Array.of(m.endLimit[f]));
     this.routeOf = new Int32Array(m.nJobs).fill(-1);
-    this.caches = this.routes.map((r, f) => buildCache(m, f, r));
+    this.caches = this.routes.map((_, f) => newRouteCache(0, m.shiftStart[f]));
     this.unassigned = new Set(Array.from({ length: m.nJobs }, (_, j) => j));
     this.recomputeCost();
   }
@@ -135,8 +117,9 @@ export class State {
     }
     this.ready[f] = ready;
     this.latest[f] = latest;
-    this.evals[f] = evalRoute(m, f, r);
-    this.caches[f] = this.evals[f].feasible ? buildCache(m, f, r) : null;
+    const cache = newRouteCache(n, m.shiftStart[f]);
+    this.evals[f] = evalRoute(m, f, r, false, cache);
+    this.caches[f] = this.evals[f].feasible ? cache : null;
     this.touched.add(f);
   }
 
@@ -279,117 +262,63 @@ export class State {
 
   /**
    * Cheapest position for job j in route f (skipping each position with probability `blink`), or
-   * delta Infinity. Stops scanning once the farrier is free only after j's last window has closed:
-   * ready times never decrease along a route, so no later position can work.
+   * delta Infinity. Each position is first priced by its change in drive and distance alone, in
+   * constant time: one that cannot beat the best so far (or `bound`) is skipped before any timing
+   * check, since overtime and breaks almost never make an insertion cheaper than its added driving.
+   * The rest are checked against the route's time slack (Savelsbergh: ready times forward, latest
+   * starts backward) and, when the model needs exact checks, re-timed by `costOf`. The scan stops once
+   * the farrier is free only after j's last window has closed: ready times never decrease along a
+   * route, so no later position can work.
    */
   bestPosition(j: number, f: number, blink: number, rnd: () => number, bound = Infinity): { delta: number; pos: number } {
-    const m = this.m;
+    const m = this.m, N = m.nJobs;
     let best = bound, pos = -1;
-    if (!m.eligible[f * m.nJobs + j] || this.evals[f].load + m.demand[j] > m.capacity[f]) return { delta: best, pos };
+    const ev = this.evals[f];
+    if (!m.eligible[f * N + j] || ev.load + m.demand[j] > m.capacity[f]) return { delta: best, pos };
     const w = m.windows[j];
     if (w.length === 0) return { delta: best, pos };
     const lastEnd = w[w.length - 1];
-    const r = this.routes[f], ready = this.ready[f];
-    for (let p = 0; p <= r.length; p++) {
+    const r = this.routes[f], n = r.length, ready = this.ready[f], latest = this.latest[f];
+    const arcSec = m.arcSec, travelSec = m.travelSec, arcM = m.arcM, windows = m.windows;
+    const fromArc = m.fromHomeArc[f], fromT = m.fromHomeTravel[f], fromM = m.fromHomeM[f], toT = m.toHomeTravel[f], toM = m.toHomeM[f];
+    const cD = m.cDrive[f], cM = m.cMetre[f], fixed = n === 0 ? m.fixedCost[f] : 0, svc = m.serviceSec[j], jN = j * N;
+    const exact = m.needsExact, P = SCRATCH;
+    for (let p = 0; p <= n; p++) {
       if (p > 0 && ready[p - 1] > lastEnd) break;
       if (blink > 0 && rnd() < blink) continue;
-      const d = this.insertionDelta(j, f, p, best);
+      const prev = p > 0 ? r[p - 1] : -1, next = p < n ? r[p] : -1;
+      let dT: number, dM: number;
+      if (next >= 0) {
+        if (prev < 0) {
+          dT = fromT[j] + travelSec[jN + next] - fromT[next];
+          dM = fromM[j] + arcM[jN + next] - fromM[next];
+        } else {
+          dT = travelSec[prev * N + j] + travelSec[jN + next] - travelSec[prev * N + next];
+          dM = arcM[prev * N + j] + arcM[jN + next] - arcM[prev * N + next];
+        }
+      } else if (prev < 0) {
+        dT = fromT[j] + toT[j];
+        dM = fromM[j] + toM[j];
+      } else {
+        dT = travelSec[prev * N + j] + toT[j] - toT[prev];
+        dM = arcM[prev * N + j] + toM[j] - toM[prev];
+      }
+      let d = cD * dT + cM * dM + fixed;
+      if (d >= best) continue;
+      const s = earliestIn(w, (p > 0 ? ready[p - 1] : m.shiftStart[f]) + (prev < 0 ? fromArc[j] : arcSec[prev * N + j]));
+      if (s === Infinity) continue;
+      const rj = s + svc;
+      if (next >= 0 ? earliestIn(windows[next], rj + arcSec[jN + next]) > latest[p] : rj + toT[j] > latest[n]) continue;
+      if (exact) {
+        P[0] = f; P[1] = 0; P[2] = p; P[3] = 0;
+        P[4] = -1; P[5] = j; P[6] = 0; P[7] = 0;
+        P[8] = f; P[9] = p; P[10] = n; P[11] = 0;
+        const c = this.costOf(f, P);
+        if (c === Infinity) continue;
+        d = c - ev.cost;
+      }
       if (d < best) { best = d; pos = p; }
     }
     return pos < 0 ? { delta: Infinity, pos } : { delta: best, pos };
   }
-
-  /**
-   * Cost change of inserting job j into route f at position p, or Infinity when infeasible.
-   * Constant time from the caches; when the model needs exact checks the candidate is re-evaluated,
-   * unless its drive-and-distance change alone already reaches `bound` (the best found so far):
-   * overtime and breaks almost never make an insertion cheaper than its added driving.
-   */
-  insertionDelta(j: number, f: number, p: number, bound = Infinity): number {
-    const m = this.m, N = m.nJobs;
-    if (!m.eligible[f * N + j]) return Infinity;
-    const r = this.routes[f], n = r.length;
-    const ev = this.evals[f];
-    if (ev.load + m.demand[j] > m.capacity[f]) return Infinity;
-    const prev = p > 0 ? r[p - 1] : -1;
-    const readyPrev = p > 0 ? this.ready[f][p - 1] : m.shiftStart[f];
-    const s = earliestIn(m.windows[j], readyPrev + (prev < 0 ? m.fromHomeArc[f][j] : m.arcSec[prev * N + j]));
-    if (s === Infinity) return Infinity;
-    const rj = s + m.serviceSec[j];
-    let dT: number, dM: number;
-    if (p < n) {
-      const next = r[p];
-      const sn = earliestIn(m.windows[next], rj + m.arcSec[j * N + next]);
-      if (sn > this.latest[f][p]) return Infinity;
-      if (prev < 0) {
-        dT = m.fromHomeTravel[f][j] + m.travelSec[j * N + next] - m.fromHomeTravel[f][next];
-        dM = m.fromHomeM[f][j] + m.arcM[j * N + next] - m.fromHomeM[f][next];
-      } else {
-        dT = m.travelSec[prev * N + j] + m.travelSec[j * N + next] - m.travelSec[prev * N + next];
-        dM = m.arcM[prev * N + j] + m.arcM[j * N + next] - m.arcM[prev * N + next];
-      }
-    } else {
-      if (rj + m.toHomeTravel[f][j] > this.latest[f][n]) return Infinity;
-      if (prev < 0) {
-        dT = m.fromHomeTravel[f][j] + m.toHomeTravel[f][j];
-        dM = m.fromHomeM[f][j] + m.toHomeM[f][j];
-      } else {
-        dT = m.travelSec[prev * N + j] + m.toHomeTravel[f][j] - m.toHomeTravel[f][prev];
-        dM = m.arcM[prev * N + j] + m.toHomeM[f][j] - m.toHomeM[f][prev];
-      }
-    }
-    if (m.needsExact) {
-      if (m.cDrive[f] * dT + m.cMetre[f] * dM + (n === 0 ? m.fixedCost[f] : 0) >= bound) return Infinity;
-      const P = SCRATCH;
-      P[0] = f; P[1] = 0; P[2] = p; P[3] = 0;
-      P[4] = -1; P[5] = j; P[6] = 0; P[7] = 0;
-      P[8] = f; P[9] = p; P[10] = n; P[11] = 0;
-      const c = this.costOf(f, P);
-      return c === Infinity ? Infinity : c - ev.cost;
-    }
-    return m.cDrive[f] * dT + m.cMetre[f] * dM + (n === 0 ? m.fixedCost[f] : 0);
-  }
-}
-
-/**
- * Timing prefix of a route for `State.costOf`, following the rules of `evalRoute` step by step
- * (null when the route breaks a rule: candidates are then re-timed from scratch).
- */
-export function buildCache(m: Model, f: number, r: number[]): RouteCache | null {
-  const n = r.length, N = m.nJobs;
-  const far = m.problem.farriers[f];
-  const hasBreak = far.breakSec > 0 && far.breakWindow !== null;
-  const bwS = hasBreak ? far.breakWindow!.startSec : 0, bwE = hasBreak ? far.breakWindow!.endSec : 0;
-  const c: RouteCache = {
-    start: new Float64Array(n), breakDone: new Uint8Array(n), drive: new Float64Array(n), dist: new Float64Array(n), load: new Float64Array(n),
-    breakStart: 0, breakAtHome: false, end: m.shiftStart[f],
-  };
-  if (n === 0) return c;
-  let ready = m.shiftStart[f], breakDone = !hasBreak, drive = 0, dist = 0, load = 0, prev = -1;
-  for (let k = 0; k < n; k++) {
-    const j = r[k];
-    const arc = prev < 0 ? m.fromHomeArc[f][j] : m.arcSec[prev * N + j];
-    let st = earliestIn(m.windows[j], ready + arc);
-    if (!breakDone && (st >= bwS || st === Infinity)) {
-      const bb = ready > bwS ? ready : bwS;
-      if (bb > bwE) return null;
-      c.breakStart = bb; c.breakAtHome = k === 0; breakDone = true;
-      st = earliestIn(m.windows[j], bb + far.breakSec + arc);
-    }
-    if (st === Infinity) return null;
-    if (prev < 0) { drive += m.fromHomeTravel[f][j]; dist += m.fromHomeM[f][j]; }
-    else { drive += m.travelSec[prev * N + j]; dist += m.arcM[prev * N + j]; }
-    load += m.demand[j];
-    c.start[k] = st; c.breakDone[k] = breakDone ? 1 : 0; c.drive[k] = drive; c.dist[k] = dist; c.load[k] = load;
-    ready = st + m.serviceSec[j];
-    prev = j;
-  }
-  if (!breakDone) {
-    const bb = ready > bwS ? ready : bwS;
-    if (bb > bwE) return null;
-    c.breakStart = bb;
-    ready = bb + far.breakSec;
-  }
-  c.end = ready + m.toHomeTravel[f][prev];
-  return c;
 }
