@@ -183,7 +183,7 @@ export function putBack(s: State, rng: Rng, p: SisrParams, removed: number[], le
  * not), so that a job no exchange can place is not re-tried in every step against the same routes.
  */
 const noExchange = new WeakMap<Model, Map<number, RouteEval[]>>();
-const EXCHANGE = new Float64Array(16);
+const EXCHANGE: number[] = [0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0];
 
 /**
  * Puts mandatory job j, which has no room of its own, in the place of the planned optional job whose
@@ -222,7 +222,7 @@ export function ejectFor(s: State, j: number): number {
           P[i++] = -1; P[i++] = j; P[i++] = 0; P[i++] = 0;
           if (n > q + 1) { P[i++] = f; P[i++] = q + 1; P[i++] = n; P[i++] = 0; }
         }
-        const c = s.costOf(f, P.subarray(0, i));
+        const c = s.costOf(f, P, i);
         if (c === Infinity) continue;
         feasible = true;
         if (c + keep < best) { best = c + keep; bo = o; bf = f; bq = q; }

@@ -20,9 +20,9 @@ function latestIn(w: Float64Array, t: number): number {
 export type Pieces = ArrayLike<number>;
 
 /** The job sequence a piece list describes on the current routes. */
-export function materialize(routes: number[][], P: Pieces): number[] {
+export function materialize(routes: number[][], P: Pieces, len = P.length): number[] {
   const out: number[] = [];
-  for (let i = 0; i < P.length; i += 4) {
+  for (let i = 0; i < len; i += 4) {
     const src = P[i], a = P[i + 1], b = P[i + 2];
     if (src < 0) { out.push(a); continue; }
     const r = routes[src];
@@ -32,8 +32,12 @@ export function materialize(routes: number[][], P: Pieces): number[] {
   return out;
 }
 
-/** Piece list of one insertion, reused (the engine is single-threaded and `costOf` does not recurse). */
-const SCRATCH = new Float64Array(12);
+/**
+ * Piece list of one insertion, reused (the engine is single-threaded and `costOf` does not recurse).
+ * A plain array of small integers, like the piece lists of local search, so that `costOf` sees one
+ * kind of array.
+ */
+const SCRATCH: number[] = [0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0];
 
 /**
  * A plan under search: one job sequence per farrier plus the left-out jobs. Each route keeps
@@ -168,14 +172,15 @@ export class State {
    * Exact cost of farrier f doing the sequence the pieces describe (Infinity when a rule breaks),
    * without building it: the same rules as `evalRoute`, re-using the route's timing prefix when the
    * pieces start with its first jobs and stopping early once its own tail is back on its old times.
+   * Only the first `len` numbers of P are read.
    */
-  costOf(f: number, P: Pieces): number {
+  costOf(f: number, P: Pieces, len = P.length): number {
     const m = this.m, N = m.nJobs;
     if (m.hasPositionPins) {
-      const e = evalRoute(m, f, materialize(this.routes, P));
+      const e = evalRoute(m, f, materialize(this.routes, P, len));
       return e.feasible ? e.cost : Infinity;
     }
-    const np = P.length >> 2;
+    const np = len >> 2;
     let total = 0;
     for (let i = 0; i < np; i++) total += P[4 * i] < 0 ? 1 : P[4 * i + 2] - P[4 * i + 1];
     if (total === 0) return 0;
