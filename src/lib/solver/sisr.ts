@@ -25,8 +25,12 @@ export function ruin(s: State, rng: Rng, p: SisrParams): number[] {
   return ruinAround(s, rng, p).removed;
 }
 
-/** The ruin step, also returning the seed job the strings were taken around. */
-export function ruinAround(s: State, rng: Rng, p: SisrParams): { removed: number[]; seed: number } {
+/**
+ * The ruin step, also returning the seed job the strings were taken around: a random planned job,
+ * or `seedJob` when given. A left-out job as the seed takes no string itself; the routes of its
+ * nearest planned jobs are ruined.
+ */
+export function ruinAround(s: State, rng: Rng, p: SisrParams, seedJob = -1): { removed: number[]; seed: number } {
   const m = s.m;
   let total = 0, used = 0;
   for (const r of s.routes) if (r.length) { total += r.length; used++; }
@@ -35,8 +39,8 @@ export function ruinAround(s: State, rng: Rng, p: SisrParams): { removed: number
   const lsMax = Math.min(p.maxString, avgCard);
   const ksMax = (4 * p.avgRemoved) / (1 + lsMax) - 1;
   const ks = Math.floor(rng.next() * ksMax) + 1;
-  // seed: a random assigned job
-  let seed = -1;
+  // seed: the given job, else a random assigned one
+  let seed = seedJob;
   for (let tries = 0; tries < 50 && seed < 0; tries++) {
     const j = rng.int(m.nJobs);
     if (s.routeOf[j] >= 0) seed = j;
@@ -73,6 +77,16 @@ export function ruinAround(s: State, rng: Rng, p: SisrParams): { removed: number
   for (let k = 0; k < nb.length && ruined.size < ks; k++) visit(nb[k]);
   s.removeMany(removed);
   return { removed, seed };
+}
+
+/** A random left-out job that some farrier could do (not `hopeless`), or −1 when there is none. */
+export function randomLeftOut(s: State, rng: Rng, hopeless: Uint8Array): number {
+  let count = 0;
+  for (const j of s.unassigned) if (!hopeless[j]) count++;
+  if (count === 0) return -1;
+  let k = rng.int(count);
+  for (const j of s.unassigned) if (!hopeless[j] && k-- === 0) return j;
+  return -1;
 }
 
 /**

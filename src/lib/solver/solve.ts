@@ -3,16 +3,23 @@ import { impossibleReason, type UnplannedReason } from './diagnose';
 import { localSearch } from './moves';
 import { createRng, type Rng } from './random';
 import { evalRoute } from './route-eval';
-import { annealTemperature, DEFAULT_SISR, greedyConstruct, leftOutCandidates, putBack, recreate, regretConstruct, ruin, ruinAround } from './sisr';
+import { annealTemperature, DEFAULT_SISR, greedyConstruct, leftOutCandidates, putBack, randomLeftOut, recreate, regretConstruct, ruin, ruinAround } from './sisr';
+import { State } from './state';
+import { interchangeableFleet, recombine, RoutePool } from './set-partition';
+import type { Problem } from './problem';
+import type { RouteTotals } from './checker';
+
 /**
  * Share of recreate steps that use regret insertion instead of greedy insertion, on problems of up
  * to 400 jobs (as for construction; on a 1,000-job day it lost to greedy insertion within 30 s).
  */
 const REGRET_SHARE = 0.5;
-import { State } from './state';
-import { interchangeableFleet, recombine, RoutePool } from './set-partition';
-import type { Problem } from './problem';
-import type { RouteTotals } from './checker';
+/**
+ * Share of search steps whose ruin is taken around a random left-out job instead of a planned one;
+ * that job then goes back together with the jobs removed around it, so it competes for their room
+ * instead of getting only what they leave (figures in docs/solver.md).
+ */
+const LEFT_OUT_SEED_SHARE = 0.25;
 
 /** When to stop. At least one limit applies; with none given the engine stops after 10 seconds. */
 export interface StopRule {
@@ -177,7 +184,9 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
       }
       const T = annealTemperature(m, (iterations - cycleStart) / cycle);
       const cand = cur.clone();
-      const { removed, seed } = ruinAround(cand, rng, DEFAULT_SISR);
+      const around = cand.unassigned.size && rng.next() < LEFT_OUT_SEED_SHARE ? randomLeftOut(cand, rng, hopeless) : -1;
+      const { removed, seed } = ruinAround(cand, rng, DEFAULT_SISR, around);
+      if (around >= 0) removed.push(around);
       const leftOut = leftOutCandidates(cand, rng, removed, seed, hopeless);
       putBack(cand, rng, DEFAULT_SISR, removed, leftOut, m.nJobs <= 400 && rng.next() < REGRET_SHARE);
       iterations++;

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { buildModel } from '../../../src/lib/solver/model';
 import { createRng } from '../../../src/lib/solver/random';
 import { evalRoute } from '../../../src/lib/solver/route-eval';
-import { regretConstruct, regretRecreate, DEFAULT_SISR, ruinAround, leftOutCandidates, putBack, ejectFor } from '../../../src/lib/solver/sisr';
+import { regretConstruct, regretRecreate, DEFAULT_SISR, ruinAround, leftOutCandidates, putBack, ejectFor, randomLeftOut } from '../../../src/lib/solver/sisr';
 import { materialize, State } from '../../../src/lib/solver/state';
 import { checkSolution } from '../../../src/lib/solver/checker';
 import { randomProblem } from './helpers';
@@ -220,5 +220,51 @@ describe('a mandatory job with no room anywhere', () => {
     putBack(s, createRng(5), { ...DEFAULT_SISR, blinkRate: 0 }, [], [2], false);
     expect(s.routes[0]).toEqual(before);
     expect([...s.unassigned]).toEqual([2]);
+  });
+});
+
+describe('a ruin around a left-out job', () => {
+  it('picks only left-out jobs some farrier could do, each of them in turn', () => {
+    const p = randomProblem(51, { jobs: 24, farriers: 3, breaks: true, tight: true });
+    const m = buildModel(p);
+    const s = new State(m);
+    regretConstruct(s, createRng(51));
+    const out = [...s.unassigned];
+    expect(out.length).toBeGreaterThan(2);
+    // the first left-out job counts as one no farrier could do
+    const hopeless = new Uint8Array(m.nJobs);
+    hopeless[out[0]] = 1;
+    const rng = createRng(7), picked = new Set<number>();
+    for (let t = 0; t < 200; t++) picked.add(randomLeftOut(s, rng, hopeless));
+    expect([...picked].sort((a, b) => a - b)).toEqual(out.slice(1).sort((a, b) => a - b));
+    // with only hopeless jobs out there is nothing to pick
+    for (const j of out.slice(1)) hopeless[j] = 1;
+    expect(randomLeftOut(s, rng, hopeless)).toBe(-1);
+  });
+
+  it('ruins the route of its nearest planned job first and leaves the job itself out for the recreate', () => {
+    let steps = 0;
+    for (const seed of [52, 53, 54]) {
+      const p = randomProblem(seed, { jobs: 24, farriers: 3, breaks: true, tight: true });
+      const m = buildModel(p);
+      const s = new State(m);
+      const rng = createRng(seed);
+      regretConstruct(s, rng);
+      for (const u of s.unassigned) {
+        const nearest = [...m.neighbours[u]].find((j) => s.routeOf[j] >= 0);
+        if (nearest === undefined) continue;
+        const c = s.clone();
+        const { removed, seed: around } = ruinAround(c, rng, DEFAULT_SISR, u);
+        expect(around).toBe(u);
+        expect(removed).not.toContain(u);
+        expect(c.routeOf[u]).toBe(-1);
+        // the nearest planned job's route lost a string (a string around that job itself)
+        const f = s.routeOf[nearest];
+        expect(c.routes[f].length).toBeLessThan(s.routes[f].length);
+        expect(removed.every((j) => s.routeOf[j] >= 0 && c.routeOf[j] === -1)).toBe(true);
+        steps++;
+      }
+    }
+    expect(steps).toBeGreaterThan(5);
   });
 });

@@ -47,7 +47,7 @@ describe('solveInWorker', () => {
   });
 
   it('by default runs two searches side by side and keeps the better plan, as solve() with both seeds would', async () => {
-    const p = randomProblem(18, { jobs: 40, farriers: 4, breaks: true });
+    const p = randomProblem(16, { jobs: 40, farriers: 4, breaks: true });
     const stop = { maxIterations: 400 };
     const progress: Progress[] = [];
     const r = await solveInWorker(p, { seed: 1, stop }, { onProgress: (x) => progress.push(x) });
