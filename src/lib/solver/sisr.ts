@@ -89,6 +89,9 @@ export function randomLeftOut(s: State, rng: Rng, hopeless: Uint8Array): number 
   return -1;
 }
 
+/** Up to this many jobs left out counts as a day with few left out (see `leftOutCandidates`). */
+export const FEW_LEFT_OUT = 40;
+
 /**
  * The left-out jobs a recreate step should try after putting back the jobs just removed: all of
  * them on a day with few left out, otherwise those near the ruined area and a few random ones.
@@ -99,7 +102,7 @@ export function leftOutCandidates(s: State, rng: Rng, removed: number[], seed: n
   const out: number[] = [];
   if (s.unassigned.size === removed.length) return out;
   const inList = new Set(removed);
-  if (s.unassigned.size <= 40) {
+  if (s.unassigned.size <= FEW_LEFT_OUT) {
     for (const j of s.unassigned) if (!hopeless[j] && !inList.has(j)) out.push(j);
     return out;
   }
