@@ -156,9 +156,21 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
     let cur = best.clone();
     // annealing restarts from the best plan at the end of each cycle; cycles start short (10
     // iterations per job) and double up to 200 per job, so a short run still reaches low
-    // temperatures and a long one anneals slowly — without the schedule ever reading the clock
+    // temperatures and a long one anneals slowly; the last cycle ends with the run (`nextCycle`)
     const maxCycle = Math.max(4000, 200 * m.nJobs);
-    let cycle = Math.min(maxCycle, Math.max(500, 10 * m.nJobs));
+    const loopStart = now(), loopIterations = iterations;
+    // iterations still to come: exact under an iteration limit, estimated from the pace so far
+    // under a time limit (the clock then only shapes the last cycle of a run it already ends)
+    const iterationsLeft = () => {
+      let left = maxIt - iterations;
+      if (maxSec !== Infinity) {
+        const elapsed = now() - loopStart;
+        const done = iterations - loopIterations;
+        left = done > 0 && elapsed > 0 ? Math.min(left, Math.floor(((maxSec - (now() - t0)) * done) / elapsed)) : left;
+      }
+      return left;
+    };
+    let cycle = nextCycle(Math.max(500, 10 * m.nJobs) / 2, maxCycle, iterationsLeft());
     let cycleStart = 0;
     let sinceBest = 0;
     const eps = 1e-9 * Math.max(1, m.typicalArcCost);
@@ -171,7 +183,7 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
       if (outOfTime()) break;
       if (iterations - cycleStart >= cycle) {
         cycleStart = iterations;
-        cycle = Math.min(maxCycle, cycle * 2);
+        cycle = nextCycle(cycle, maxCycle, iterationsLeft());
         if (pool) {
           const routes = recombine(best, pool);
           if (routes) {
@@ -214,6 +226,18 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
   return buildResult(m, best, reasons, {
     iterations, seconds: now() - t0, firstFeasibleSeconds, improvements, farriersUsed: best.usedRoutes(), stopReason, seed: opts.seed,
   });
+}
+
+/**
+ * Length of the next annealing cycle: twice the last one, at most `maxCycle`, but no longer than the
+ * iterations the run has left, so that its last cycle cools all the way down instead of being cut
+ * off while still hot. On the invented farrier days at 25,000 iterations (the last cycle 6,400
+ * instead of the first 6,400 of 12,000) the mean gap to the best known plans fell from 1.17 to
+ * 1.14 % over 240 runs; a last cycle stretched to take everything left gave 1.21 % (docs/solver.md).
+ */
+export function nextCycle(last: number, maxCycle: number, left: number): number {
+  const c = Math.min(maxCycle, Math.round(last * 2));
+  return left < c ? Math.max(1, left) : c;
 }
 
 function fleetPhase(
