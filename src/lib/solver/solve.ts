@@ -98,10 +98,11 @@ const now = () => performance.now() / 1000;
 
 /**
  * Builds a day plan: regret insertion, a first local search, then string-removal ruin and blink
- * recreate under simulated annealing (restarted from the best plan in fixed-length cycles so that the
- * run does not depend on the clock), with local search on every new best plan. Under the
+ * recreate under simulated annealing (restarted from the best plan in cycles counted in iterations,
+ * the last one ending with the run), with local search on every new best plan. Under the
  * fleet-then-distance objective a route-removal phase first tries to empty whole routes.
- * Deterministic for a seed and an iteration limit; a seconds limit only decides when to stop.
+ * Deterministic for a seed and an iteration limit; a seconds limit decides when to stop and, from
+ * the pace so far, how long the last cycle is.
  */
 export function solve(problem: Problem, opts: SolveOptions): SolveResult {
   const t0 = now();
