@@ -163,15 +163,11 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
     // iterations still to come: exact under an iteration limit, estimated from the pace so far
     // under a time limit (the clock then only shapes the last cycle of a run it already ends)
     const iterationsLeft = () => {
-      let left = maxIt - iterations;
-      if (maxSec !== Infinity) {
-        const elapsed = now() - loopStart;
-        const done = iterations - loopIterations;
-        left = done > 0 && elapsed > 0 ? Math.min(left, Math.floor(((maxSec - (now() - t0)) * done) / elapsed)) : left;
-      }
-      return left;
+      const done = iterations - loopIterations, t = now();
+      if (maxSec === Infinity || done === 0 || t <= loopStart) return maxIt - iterations;
+      return Math.min(maxIt - iterations, Math.floor(((maxSec - (t - t0)) * done) / (t - loopStart)));
     };
-    let cycle = nextCycle(Math.max(500, 10 * m.nJobs) / 2, maxCycle, iterationsLeft());
+    let cycle = fitCycle(Math.min(maxCycle, Math.max(500, 10 * m.nJobs)), iterationsLeft());
     let cycleStart = 0;
     let sinceBest = 0;
     const eps = 1e-9 * Math.max(1, m.typicalArcCost);
@@ -237,8 +233,12 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
  * 1.14 % over 240 runs; a last cycle stretched to take everything left gave 1.21 % (docs/solver.md).
  */
 export function nextCycle(last: number, maxCycle: number, left: number): number {
-  const c = Math.min(maxCycle, Math.round(last * 2));
-  return left < c ? Math.max(1, left) : c;
+  return fitCycle(Math.min(maxCycle, last * 2), left);
+}
+
+/** A cycle of `length` iterations, cut to the `left` the run still has (at least one). */
+function fitCycle(length: number, left: number): number {
+  return left < length ? Math.max(1, left) : length;
 }
 
 function fleetPhase(
