@@ -39,6 +39,21 @@ export function materialize(routes: number[][], P: Pieces, len = P.length): numb
  */
 const SCRATCH: number[] = [0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0];
 
+/** Remembered cheapest insertions: per job × farrier, the route version scanned and its answer. */
+interface InsertionMemo {
+  ev: (RouteEval | undefined)[];
+  delta: Float64Array;
+  pos: Int32Array;
+  /** The bound the scan ran under: with no position found, none is cheaper than this. */
+  bound: Float64Array;
+}
+
+function newInsertionMemo(size: number): InsertionMemo {
+  return { ev: new Array<RouteEval | undefined>(size).fill(undefined), delta: new Float64Array(size), pos: new Int32Array(size), bound: new Float64Array(size) };
+}
+
+const NONE = Object.freeze({ delta: Infinity, pos: -1 });
+
 /**
  * A plan under search: one job sequence per farrier plus the left-out jobs. Each route keeps
  * forward ready times and backward latest starts (Savelsbergh's time slack), so that inserting a
@@ -54,6 +69,16 @@ export class State {
   routeOf: Int32Array;
   /** Timing prefix of each feasible route (null for an infeasible one). */
   caches: (RouteCache | null)[];
+  /** Each route's timing-prefix arrays, kept while the route is infeasible so that they can be reused. */
+  private buffers: RouteCache[];
+  /**
+   * own[f] = 1 when this state's arrays for route f (ready, latest, timing prefix) are its alone and
+   * may be overwritten in place. A clone shares them with its source until either refreshes the
+   * route; a search step then allocates once per route it changes, not once per refresh.
+   */
+  private own: Uint8Array;
+  /** Cheapest insertions found so far, by job and route version; shared by clones (`bestPosition`). */
+  private memo: InsertionMemo;
   unassigned: Set<number>;
   cost = 0;
   /** Routes refreshed since this state was cloned (the part a search step changed). */
@@ -65,7 +90,10 @@ export class State {
     this.ready = this.routes.map(() => new Float64Array(0));
     this.latest = this.routes.map((_, f) => Float64Array.of(m.endLimit[f]));
     this.routeOf = new Int32Array(m.nJobs).fill(-1);
-    this.caches = this.routes.map((_, f) => newRouteCache(0, m.shiftStart[f]));
+    this.buffers = this.routes.map((_, f) => newRouteCache(0, m.shiftStart[f]));
+    this.caches = this.buffers.slice();
+    this.own = new Uint8Array(m.nFarriers);
+    this.memo = newInsertionMemo(m.nJobs * m.nFarriers);
     this.unassigned = new Set(Array.from({ length: m.nJobs }, (_, j) => j));
     this.recomputeCost();
   }
@@ -79,6 +107,10 @@ export class State {
     s.latest = this.latest.slice();
     s.routeOf = this.routeOf.slice();
     s.caches = this.caches.slice();
+    s.buffers = this.buffers.slice();
+    s.own = new Uint8Array(this.own.length);
+    s.memo = this.memo;
+    this.own.fill(0);
     s.unassigned = new Set(this.unassigned);
     s.cost = this.cost;
     s.touched = new Set();
@@ -103,7 +135,18 @@ export class State {
   refresh(f: number): void {
     const m = this.m, N = m.nJobs, r = this.routes[f];
     const n = r.length;
-    const ready = new Float64Array(n), latest = new Float64Array(n + 1);
+    let ready = this.ready[f], latest = this.latest[f], cache = this.buffers[f];
+    if (!this.own[f] || ready.length < n) {
+      // room for a few more jobs, so that the insertions of one search step reuse the arrays
+      const room = n + 8;
+      ready = new Float64Array(room);
+      latest = new Float64Array(room + 1);
+      cache = newRouteCache(room, m.shiftStart[f]);
+      this.ready[f] = ready;
+      this.latest[f] = latest;
+      this.buffers[f] = cache;
+      this.own[f] = 1;
+    }
     let t = m.shiftStart[f], prev = -1;
     for (let k = 0; k < n; k++) {
       const j = r[k];
@@ -119,9 +162,7 @@ export class State {
       const back = k === n - 1 ? m.toHomeTravel[f][j] : m.arcSec[j * N + r[k + 1]];
       latest[k] = latestIn(m.windows[j], latest[k + 1] - back - m.serviceSec[j]);
     }
-    this.ready[f] = ready;
-    this.latest[f] = latest;
-    const cache = newRouteCache(n, m.shiftStart[f]);
+    cache.breakStart = 0; cache.breakAtHome = false; cache.end = m.shiftStart[f];
     this.evals[f] = evalRoute(m, f, r, false, cache);
     this.caches[f] = this.evals[f].feasible ? cache : null;
     this.touched.add(f);
@@ -266,22 +307,46 @@ export class State {
   }
 
   /**
-   * Cheapest position for job j in route f (skipping each position with probability `blink`), or
-   * delta Infinity. Each position is first priced by its change in drive and distance alone, in
-   * constant time: one that cannot beat the best so far (or `bound`) is skipped before any timing
-   * check, since overtime and breaks almost never make an insertion cheaper than its added driving.
-   * The rest are checked against the route's time slack (Savelsbergh: ready times forward, latest
-   * starts backward) and, when the model needs exact checks, re-timed by `costOf`. The scan stops once
-   * the farrier is free only after j's last window has closed: ready times never decrease along a
-   * route, so no later position can work.
+   * Cheapest position for job j in route f, skipping each position with probability `blink`, or
+   * delta Infinity when none beats `bound`. A route's evaluation object is replaced whenever the route
+   * changes and shared by clones while it does not, so the blink-free answer is remembered per job
+   * and route version: a search step puts its removed jobs back into mostly the same untouched
+   * routes as the steps before it. Blinks are then drawn on the answer: with probability `blink`
+   * its position is skipped and the rest are scanned with blinks, which is the same distribution as
+   * skipping every position independently.
    */
   bestPosition(j: number, f: number, blink: number, rnd: () => number, bound = Infinity): { delta: number; pos: number } {
+    const ev = this.evals[f], memo = this.memo, k = j * this.m.nFarriers + f;
+    let delta: number, pos: number;
+    if (ev.feasible && memo.ev[k] === ev && (memo.pos[k] >= 0 || bound <= memo.bound[k])) {
+      delta = memo.delta[k]; pos = memo.pos[k];
+      if (pos < 0 || delta >= bound) return NONE;
+    } else {
+      const b = this.scanPositions(j, f, 0, rnd, bound, -1);
+      delta = b.delta; pos = b.pos;
+      if (ev.feasible) { memo.ev[k] = ev; memo.delta[k] = delta; memo.pos[k] = pos; memo.bound[k] = bound; }
+      if (pos < 0) return NONE;
+    }
+    if (blink > 0 && rnd() < blink) return this.scanPositions(j, f, blink, rnd, bound, pos);
+    return { delta, pos };
+  }
+
+  /**
+   * The scan behind `bestPosition`. Each position is first priced by its change in drive and distance
+   * alone, in constant time: one that cannot beat the best so far (or `bound`) is skipped before any
+   * timing check, since overtime and breaks almost never make an insertion cheaper than its added
+   * driving. The rest are checked against the route's time slack (Savelsbergh: ready times forward,
+   * latest starts backward) and, when the model needs exact checks, re-timed by `costOf`. The scan
+   * stops once the farrier is free only after j's last window has closed: ready times never decrease
+   * along a route, so no later position can work. Position `skip` is not considered.
+   */
+  private scanPositions(j: number, f: number, blink: number, rnd: () => number, bound: number, skip: number): { delta: number; pos: number } {
     const m = this.m, N = m.nJobs;
     let best = bound, pos = -1;
     const ev = this.evals[f];
-    if (!m.eligible[f * N + j] || ev.load + m.demand[j] > m.capacity[f]) return { delta: best, pos };
+    if (!m.eligible[f * N + j] || ev.load + m.demand[j] > m.capacity[f]) return NONE;
     const w = m.windows[j];
-    if (w.length === 0) return { delta: best, pos };
+    if (w.length === 0) return NONE;
     const lastEnd = w[w.length - 1];
     const r = this.routes[f], n = r.length, ready = this.ready[f], latest = this.latest[f];
     const arcSec = m.arcSec, travelSec = m.travelSec, arcM = m.arcM, windows = m.windows;
@@ -290,7 +355,7 @@ export class State {
     const exact = m.needsExact, P = SCRATCH;
     for (let p = 0; p <= n; p++) {
       if (p > 0 && ready[p - 1] > lastEnd) break;
-      if (blink > 0 && rnd() < blink) continue;
+      if (p === skip || (blink > 0 && rnd() < blink)) continue;
       const prev = p > 0 ? r[p - 1] : -1, next = p < n ? r[p] : -1;
       let dT: number, dM: number;
       if (next >= 0) {
@@ -324,6 +389,6 @@ export class State {
       }
       if (d < best) { best = d; pos = p; }
     }
-    return pos < 0 ? { delta: Infinity, pos } : { delta: best, pos };
+    return pos < 0 ? NONE : { delta: best, pos };
   }
 }

@@ -268,3 +268,72 @@ describe('a ruin around a left-out job', () => {
     expect(steps).toBeGreaterThan(5);
   });
 });
+
+describe('insertion memo and shared route arrays', () => {
+  /** A state with the same routes built from scratch: no remembered insertions, no shared arrays. */
+  const rebuilt = (s: State) => {
+    const t = new State(s.m);
+    t.routes = s.routes.map((r) => r.slice());
+    t.refreshAll();
+    return t;
+  };
+
+  it('answers every insertion query as a fresh scan of the current routes does, through clones, ruins and recreates', () => {
+    let compared = 0, found = 0, remembered = 0;
+    for (const seed of [41, 42, 43]) {
+      const p = randomProblem(seed, { jobs: 20, farriers: 3, breaks: true, tight: seed === 43 });
+      let s = new State(buildModel(p));
+      const rng = createRng(seed);
+      regretConstruct(s, rng);
+      for (let t = 0; t < 40; t++) {
+        const c = s.clone();
+        // either side of the clone changes afterwards; the other keeps its routes' arrays
+        const work = rng.next() < 0.5 ? c : s;
+        const { removed } = ruinAround(work, rng, DEFAULT_SISR);
+        regretRecreate(work, rng, { ...DEFAULT_SISR, blinkRate: 0 }, removed);
+        for (const st of [s, c]) {
+          const fresh = rebuilt(st);
+          for (let f = 0; f < st.m.nFarriers; f++) expect(st.evals[f].cost).toBeCloseTo(fresh.evals[f].cost, 6);
+          for (let j = 0; j < st.m.nJobs; j++) for (let f = 0; f < st.m.nFarriers; f++) {
+            const bound = rng.next() < 0.3 ? st.m.leaveOutCost[j] : Infinity;
+            const twice = st.bestPosition(j, f, 0, rng.next, bound);
+            const again = st.bestPosition(j, f, 0, rng.next, bound);
+            const want = fresh.bestPosition(j, f, 0, rng.next, bound);
+            expect(again).toEqual(twice);
+            expect(twice.pos).toBe(want.pos);
+            if (want.pos >= 0) { expect(twice.delta).toBeCloseTo(want.delta, 6); found++; }
+            compared++;
+          }
+          remembered++;
+        }
+        if (rng.next() < 0.5) s = c;
+      }
+    }
+    expect(compared).toBeGreaterThan(5000);
+    expect(found).toBeGreaterThan(1000);
+    expect(remembered).toBe(240);
+  });
+
+  it('still skips the remembered best position when it blinks', () => {
+    const p = randomProblem(44, { jobs: 12, farriers: 2 });
+    const s = new State(buildModel(p));
+    regretConstruct(s, createRng(44));
+    // half the jobs out again, so that most queries find a position
+    s.removeMany(Array.from({ length: s.m.nJobs }, (_, j) => j).filter((j) => j % 2 === 0));
+    let checked = 0;
+    for (let j = 0; j < s.m.nJobs; j++) for (let f = 0; f < s.m.nFarriers; f++) {
+      const best = s.bestPosition(j, f, 0, () => 0.9);
+      if (best.pos < 0) continue;
+      // every position blinks: nothing is left to choose, remembered or not
+      expect(s.bestPosition(j, f, 1, () => 0).pos).toBe(-1);
+      // only the first draw blinks: the remembered best is skipped, the next best is taken
+      let draws = 0;
+      const other = s.bestPosition(j, f, 0.5, () => (draws++ === 0 ? 0 : 0.9));
+      expect(other.pos).not.toBe(best.pos);
+      if (other.pos >= 0) expect(other.delta).toBeGreaterThanOrEqual(best.delta - 1e-9);
+      expect(s.bestPosition(j, f, 0.5, () => 0.9)).toEqual(best);
+      checked++;
+    }
+    expect(checked).toBeGreaterThan(10);
+  });
+});
