@@ -69,7 +69,7 @@ export class State {
   routeOf: Int32Array;
   /** Timing prefix of each feasible route (null for an infeasible one). */
   caches: (RouteCache | null)[];
-  /** Each route's timing-prefix arrays, kept while the route is infeasible so that they can be reused. */
+  /** Each route's timing-prefix arrays, kept for reuse also while `caches` holds null for an infeasible route. */
   private buffers: RouteCache[];
   /**
    * own[f] = 1 when this state's arrays for route f (ready, latest, timing prefix) are its alone and
