@@ -228,9 +228,7 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
 /**
  * Length of the next annealing cycle: twice the last one, at most `maxCycle`, but no longer than the
  * iterations the run has left, so that its last cycle cools all the way down instead of being cut
- * off while still hot. On the invented farrier days at 25,000 iterations (the last cycle 6,400
- * instead of the first 6,400 of 12,000) the mean gap to the best known plans fell from 1.17 to
- * 1.14 % over 240 runs; a last cycle stretched to take everything left gave 1.21 % (docs/solver.md).
+ * off while still hot (study in docs/solver.md, "The last annealing cycle ends with the run").
  */
 export function nextCycle(last: number, maxCycle: number, left: number): number {
   return fitCycle(Math.min(maxCycle, last * 2), left);
