@@ -165,12 +165,13 @@ export function recreate(s: State, rng: Rng, p: SisrParams, allowed?: Uint8Array
  * only fill the room that remains. Mixed into one pass, a job left out for long often took the
  * place a removed job had and pushed that one out in turn; on days with optional jobs most steps
  * then ended in a worse plan, and the search found the better plans that leave other jobs out far
- * later (figures in docs/solver.md).
+ * later (figures in docs/solver.md). `placed` sees the plan after each group of jobs went back.
  */
-export function putBack(s: State, rng: Rng, p: SisrParams, removed: number[], leftOut: number[], regret: boolean): void {
+export function putBack(s: State, rng: Rng, p: SisrParams, removed: number[], leftOut: number[], regret: boolean, placed?: (s: State) => void): void {
   const place = (jobs: number[], allowed?: Uint8Array) => {
     if (regret) regretRecreate(s, rng, p, jobs, allowed);
     else recreate(s, rng, p, allowed, jobs);
+    placed?.(s);
   };
   // a mandatory job left out (no room for it yet) goes back with the removed jobs: room is its first
   const first = removed.slice(), rest: number[] = [];

@@ -1,0 +1,105 @@
+import type { Model } from './model';
+import { packColumns, type PackLimits } from './pack';
+import { createRng } from './random';
+import type { State } from './state';
+
+interface Column { farrier: number; seq: number[]; cost: number }
+
+/**
+ * Routes the search has met on a day whose farriers differ (home, skills, forge, shift), kept per
+ * farrier as the cheapest order of each set of jobs, and recombined into the best plan they can
+ * make together (`recombine`): one route per farrier at most, no job twice, every mandatory job the
+ * incumbent plans planned again. A short search meets the routes of a better plan in different
+ * steps more often than it puts them together in one (on the invented days the long run's routes
+ * were, as job sets, among those a 25,000-iteration run had met, on most days and farriers).
+ */
+export class DayRoutePool {
+  private readonly sets: Map<number, Column>[];
+  private readonly hashA: Int32Array;
+  private readonly hashB: Int32Array;
+  private count = 0;
+  /** Job prices of the last packing, the next one's starting point. */
+  private prices: Float64Array;
+
+  constructor(readonly m: Model, readonly maxSize = 60000) {
+    this.sets = Array.from({ length: m.nFarriers }, () => new Map());
+    // a job set's key: two 26-bit XOR hashes of its jobs, one exact integer (a collision only loses a column)
+    const rng = createRng(0x5eed);
+    this.hashA = Int32Array.from({ length: m.nJobs }, () => rng.int(1 << 26));
+    this.hashB = Int32Array.from({ length: m.nJobs }, () => rng.int(1 << 26));
+    this.prices = new Float64Array(m.nJobs);
+  }
+
+  get size(): number { return this.count; }
+
+  /** Adds farrier f's route `seq` of cost `cost` (feasible; the cheaper order of one job set is kept). */
+  add(f: number, seq: number[], cost: number): void {
+    if (!seq.length) return;
+    let a = 0, b = 0;
+    for (const j of seq) { a ^= this.hashA[j]; b ^= this.hashB[j]; }
+    const key = a * 67108864 + b;
+    const map = this.sets[f];
+    const old = map.get(key);
+    if (old) {
+      if (cost < old.cost) { old.seq = seq.slice(); old.cost = cost; }
+      return;
+    }
+    if (this.count >= this.maxSize) return;
+    map.set(key, { farrier: f, seq: seq.slice(), cost });
+    this.count++;
+  }
+
+  /** Adds every planned route of a plan. */
+  addPlan(s: State): void {
+    for (let f = 0; f < s.routes.length; f++) if (s.evals[f].feasible) this.add(f, s.routes[f], s.evals[f].cost);
+  }
+
+  clear(): void {
+    for (const map of this.sets) map.clear();
+    this.count = 0;
+  }
+
+  /**
+   * The best plan the pooled routes make, as one job sequence per farrier, when it is better than
+   * `best` (fewer mandatory jobs left out, or as many and cheaper); null otherwise. A route's value
+   * is the leave-out costs of the jobs it does minus its cost; a mandatory job the incumbent leaves
+   * out is worth more than every other job and route together, so a plan that fits it wins.
+   */
+  recombine(best: State, limits: PackLimits = {}): number[][] | null {
+    const m = this.m, N = m.nJobs, F = m.nFarriers;
+    this.addPlan(best);
+    const must = new Uint8Array(N);
+    const worth = new Float64Array(N);
+    let total = 0;
+    for (let f = 0; f < F; f++) total += Math.max(0, best.evals[f].cost);
+    for (let j = 0; j < N; j++) if (!m.mandatory[j]) total += m.leaveOutCost[j];
+    for (let j = 0; j < N; j++) {
+      if (!m.mandatory[j]) worth[j] = m.leaveOutCost[j];
+      else if (best.routeOf[j] >= 0) must[j] = 1;
+      else worth[j] = total + 1;
+    }
+    let length = 0;
+    for (const map of this.sets) for (const c of map.values()) length += c.seq.length;
+    const start = new Int32Array(this.count + 1), items = new Int32Array(length);
+    const group = new Int32Array(this.count), value = new Float64Array(this.count);
+    const cols: Column[] = [];
+    let k = 0, q = 0;
+    for (const map of this.sets) for (const c of map.values()) {
+      let v = -c.cost;
+      for (const j of c.seq) { items[q++] = j; v += worth[j]; }
+      group[k] = c.farrier; value[k] = v; cols.push(c);
+      start[++k] = q;
+    }
+    let incumbent = 0;
+    for (let f = 0; f < F; f++) if (best.routes[f].length) {
+      incumbent -= best.evals[f].cost;
+      for (const j of best.routes[f]) incumbent += worth[j];
+    }
+    const beat = incumbent + 1e-7 * Math.max(1, Math.abs(incumbent));
+    const res = packColumns(N, F, { start, items, group, value }, must, beat, { ...limits, prices: this.prices });
+    if (!res.chosen) return null;
+    const routes: number[][] = Array.from({ length: F }, () => []);
+    for (const c of res.chosen) routes[cols[c].farrier] = cols[c].seq.slice();
+    return routes;
+  }
+}

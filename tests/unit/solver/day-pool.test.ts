@@ -1,0 +1,79 @@
+import { describe, expect, it } from 'vitest';
+import { buildModel } from '../../../src/lib/solver/model';
+import { createRng } from '../../../src/lib/solver/random';
+import { DEFAULT_SISR, recreate, regretConstruct, ruin } from '../../../src/lib/solver/sisr';
+import { DayRoutePool } from '../../../src/lib/solver/day-pool';
+import { State } from '../../../src/lib/solver/state';
+import { localSearch } from '../../../src/lib/solver/moves';
+import { checkSolution } from '../../../src/lib/solver/checker';
+import { randomProblem } from './helpers';
+import type { Problem } from '../../../src/lib/solver/problem';
+
+function adopt(s: State, routes: number[][]): State {
+  const next = s.clone();
+  next.routes = routes;
+  next.refreshAll();
+  return next;
+}
+
+function expectSound(p: Problem, before: State, routes: number[][]) {
+  const check = checkSolution(p, { routes: routes.map((seq, f) => ({ farrierId: p.farriers[f].id, jobIds: seq.map((j) => p.jobs[j].id) })) });
+  expect(check.violations).toEqual([]);
+  const jobs = routes.flat();
+  expect(new Set(jobs).size).toBe(jobs.length);
+  // every mandatory job the incumbent plans is planned again
+  for (let j = 0; j < p.jobs.length; j++) if (!p.jobs[j].optional && before.routeOf[j] >= 0) expect(jobs).toContain(j);
+}
+
+describe('packing a day from pooled routes (DayRoutePool)', () => {
+  it('puts together a cheaper plan whose routes it has met, and never returns a dearer or rule-breaking one', () => {
+    let recovered = 0, adopted = 0;
+    for (const seed of [61, 62, 63, 64, 65, 66]) {
+      const p = randomProblem(seed, { jobs: 18, farriers: 3, breaks: true, tight: seed % 2 === 0 });
+      const m = buildModel(p);
+      const rng = createRng(seed);
+      const good = new State(m);
+      regretConstruct(good, rng);
+      localSearch(good, rng);
+      const pool = new DayRoutePool(m);
+      pool.addPlan(good);
+      // a dearer plan near the good one, and the routes of its ruin-and-recreate neighbours
+      let poor = good;
+      for (let t = 0; t < 60; t++) {
+        const c = (t < 30 ? good : poor).clone();
+        ruin(c, rng, DEFAULT_SISR);
+        recreate(c, rng, { ...DEFAULT_SISR, blinkRate: 0.2 });
+        pool.addPlan(c);
+        if (c.cost > poor.cost) poor = c;
+      }
+      if (poor === good) continue;
+      const routes = pool.recombine(poor);
+      expect(routes).not.toBeNull();
+      expectSound(p, poor, routes!);
+      const next = adopt(poor, routes!);
+      expect(next.cost).toBeLessThan(poor.cost);
+      adopted++;
+      // the good plan's routes are in the pool, so the packing is at least as good whenever the
+      // good plan keeps every mandatory job the poor one plans
+      const keeps = [...Array(m.nJobs).keys()].every((j) => !m.mandatory[j] || poor.routeOf[j] < 0 || good.routeOf[j] >= 0);
+      if (keeps) { expect(next.cost).toBeLessThanOrEqual(good.cost + 1e-6); recovered++; }
+    }
+    expect(adopted).toBeGreaterThanOrEqual(4);
+    expect(recovered).toBeGreaterThanOrEqual(3);
+  });
+
+  it('answers null when no pooled routes beat the plan, and keeps one route per job set (the cheaper order)', () => {
+    const p = randomProblem(71, { jobs: 14, farriers: 3, breaks: true });
+    const m = buildModel(p);
+    const s = new State(m);
+    regretConstruct(s, createRng(71));
+    localSearch(s, createRng(72));
+    const pool = new DayRoutePool(m);
+    expect(pool.recombine(s)).toBeNull();
+    const f = s.routes.findIndex((r) => r.length >= 2);
+    const size = pool.size;
+    pool.add(f, s.routes[f].slice().reverse(), s.evals[f].cost + 1000);
+    expect(pool.size).toBe(size);
+    expect(pool.recombine(s)).toBeNull();
+  });
+});
