@@ -54,6 +54,40 @@ export class DayRoutePool {
     for (let f = 0; f < s.routes.length; f++) if (s.evals[f].feasible) this.add(f, s.routes[f], s.evals[f].cost);
   }
 
+  /**
+   * Writes the pooled routes into `buf` for another search (see `collectRoutes`), as many as fit:
+   * farrier, cost, length and jobs of each, then marks the buffer ready.
+   */
+  publish(buf: SharedArrayBuffer): void {
+    const data = new Float64Array(buf, 8);
+    let q = 0;
+    outer: for (const map of this.sets) for (const c of map.values()) {
+      if (q + 3 + c.seq.length > data.length) break outer;
+      data[q++] = c.farrier; data[q++] = c.cost; data[q++] = c.seq.length;
+      for (const j of c.seq) data[q++] = j;
+    }
+    markPublished(buf, q);
+  }
+
+  /**
+   * Adds the routes another search published in `buf`, waiting up to `waitMs` for them; returns how
+   * many were read (0 when none came in time).
+   */
+  collect(buf: SharedArrayBuffer, waitMs: number): number {
+    const head = new Int32Array(buf, 0, 2);
+    if (Atomics.load(head, 0) === 0) Atomics.wait(head, 0, 0, waitMs);
+    if (Atomics.load(head, 0) !== 1) return 0;
+    const data = new Float64Array(buf, 8), end = head[1];
+    let q = 0, read = 0;
+    while (q < end) {
+      const f = data[q], cost = data[q + 1], n = data[q + 2];
+      const seq = Array.from(data.subarray(q + 3, q + 3 + n));
+      q += 3 + n;
+      if (f >= 0 && f < this.sets.length && seq.every((j) => j >= 0 && j < this.m.nJobs)) { this.add(f, seq, cost); read++; }
+    }
+    return read;
+  }
+
   clear(): void {
     for (const map of this.sets) map.clear();
     this.count = 0;
@@ -102,4 +136,17 @@ export class DayRoutePool {
     for (const c of res.chosen) routes[cols[c].farrier] = cols[c].seq.slice();
     return routes;
   }
+}
+
+/** Shared buffer for one search's routes (`DayRoutePool.publish`), 8 MB: about 60,000 routes of ten jobs. */
+export function routeExchangeBuffer(bytes = 8 * 1024 * 1024): SharedArrayBuffer {
+  return new SharedArrayBuffer(bytes);
+}
+
+/** Marks `buf` ready with `length` numbers of routes (0 when a search had none to give). */
+export function markPublished(buf: SharedArrayBuffer, length: number): void {
+  const head = new Int32Array(buf, 0, 2);
+  head[1] = length;
+  Atomics.store(head, 0, 1);
+  Atomics.notify(head, 0);
 }

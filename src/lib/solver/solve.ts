@@ -6,7 +6,7 @@ import { evalRoute } from './route-eval';
 import { annealTemperature, DEFAULT_SISR, FEW_LEFT_OUT, greedyConstruct, leftOutCandidates, putBack, randomLeftOut, recreate, regretConstruct, ruin, ruinAround } from './sisr';
 import { State } from './state';
 import { interchangeableFleet, recombine, RoutePool } from './set-partition';
-import { DayRoutePool } from './day-pool';
+import { DayRoutePool, markPublished } from './day-pool';
 import type { Problem } from './problem';
 import type { RouteTotals } from './checker';
 
@@ -27,6 +27,8 @@ const LEFT_OUT_SEED_SHARE = 0.25;
 const DAY_POOL_MAX_JOBS = 400;
 /** The pool is emptied after a packing once it holds this many routes. */
 const DAY_POOL_KEEP = 60000;
+/** Longest wait, under an iteration limit, for the routes of the searches beside this one. */
+const EXCHANGE_WAIT_MS = 60000;
 
 /** When to stop. At least one limit applies; with none given the engine stops after 10 seconds. */
 export interface StopRule {
@@ -55,6 +57,12 @@ export interface SolveOptions {
   shouldStop?: () => boolean;
   /** Share of the budget spent removing whole routes under the fleet-then-distance objective (default 0.5). */
   fleetShare?: number;
+  /**
+   * Route exchange between side-by-side searches (`solveInWorker`): a search with `publish` writes
+   * the routes it met there when it ends, instead of packing them itself; a search with `collect`
+   * waits for the others' routes before its last packing and packs them all together.
+   */
+  routeExchange?: { publish?: SharedArrayBuffer; collect?: SharedArrayBuffer[] };
 }
 
 /** One job's work inside a stop. */
@@ -151,6 +159,7 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
   localSearch(best, rng);
   progress('construct', best, true);
 
+  let published = false;
   if (m.nJobs === 0 || m.nFarriers === 0) stopReason = 'nothing_to_do';
   else {
     if (m.fleetObjective) {
@@ -167,7 +176,7 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
     const loopStart = now(), loopIterations = iterations;
     // farriers who differ: the routes the search meets are packed into a plan at each cycle end and
     // once more after the last step, for which a timed run keeps a tenth of its time (at most 0.25 s)
-    const dayPool = !m.fleetObjective && m.nFarriers > 1 && m.nJobs <= DAY_POOL_MAX_JOBS ? new DayRoutePool(m) : null;
+    const dayPool = packsRoutes(problem) ? new DayRoutePool(m) : null;
     const loopSec = dayPool && maxSec !== Infinity ? maxSec - Math.min(0.25, 0.1 * maxSec) : maxSec;
     // iterations still to come: exact under an iteration limit, estimated from the pace so far
     // under a time limit (the clock then only shapes the last cycle of a run it already ends)
@@ -247,12 +256,29 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
       }
       progress('improve', best);
     }
-    if ((stopReason as string) !== 'cancelled') packDay();
+    const exchange = opts.routeExchange;
+    if (exchange?.publish) {
+      if (dayPool) { dayPool.publish(exchange.publish); published = true; }
+    } else if ((stopReason as string) !== 'cancelled') {
+      if (dayPool && exchange?.collect) {
+        // the other searches stop at the same time; under an iteration limit they may be slower
+        const waitMs = maxSec === Infinity ? EXCHANGE_WAIT_MS : Math.max(1, (t0 + maxSec) * 1000 - performance.now());
+        for (const buf of exchange.collect) dayPool.collect(buf, waitMs);
+      }
+      packDay();
+    }
   }
+  // a search with no routes to give still tells the others not to wait
+  if (opts.routeExchange?.publish && !published) markPublished(opts.routeExchange.publish, 0);
   progress('improve', best, true);
   return buildResult(m, best, reasons, {
     iterations, seconds: now() - t0, firstFeasibleSeconds, improvements, farriersUsed: best.usedRoutes(), stopReason, seed: opts.seed,
   });
+}
+
+/** Whether a search on this problem pools and packs its routes (farriers who differ, 2 or more, up to 400 jobs). */
+export function packsRoutes(problem: Problem): boolean {
+  return problem.objective !== 'fleet-then-distance' && problem.farriers.length > 1 && problem.jobs.length <= DAY_POOL_MAX_JOBS;
 }
 
 /**

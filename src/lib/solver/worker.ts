@@ -2,7 +2,8 @@ import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import type { Problem } from './problem';
-import { bestOf, type Progress, type SolveOptions, type SolveResult } from './solve';
+import { bestOf, packsRoutes, type Progress, type SolveOptions, type SolveResult } from './solve';
+import { routeExchangeBuffer } from './day-pool';
 
 /** Options for running the engine off the main thread. */
 export interface WorkerSolveOptions {
@@ -121,8 +122,11 @@ export async function solveInWorker(
     for (const q of latest) if (q) { iterations += q.iterations; seconds = Math.max(seconds, q.seconds); }
     w.onProgress!({ ...best, iterations, seconds });
   };
+  // on a farrier day the first search packs every search's routes together at the end
+  const buffers = packsRoutes(problem) ? Array.from({ length: n - 1 }, () => routeExchangeBuffer()) : null;
+  const exchange = (k: number) => (!buffers ? {} : { routeExchange: k === 0 ? { collect: buffers } : { publish: buffers[k - 1] } });
   const runs = await Promise.allSettled(Array.from({ length: n }, (_, k) =>
-    oneSearch(problem, { ...opts, seed: opts.seed + SEARCH_SEED_STEP * k }, { ...w, onProgress: w.onProgress ? (p) => report(k, p) : undefined })));
+    oneSearch(problem, { ...opts, ...exchange(k), seed: opts.seed + SEARCH_SEED_STEP * k }, { ...w, onProgress: w.onProgress ? (p) => report(k, p) : undefined })));
   const failed = runs.find((r) => r.status === 'rejected');
   if (failed) throw (failed as PromiseRejectedResult).reason;
   const results = runs.map((r) => (r as PromiseFulfilledResult<SolveResult>).value);

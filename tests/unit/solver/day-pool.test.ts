@@ -2,7 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { buildModel } from '../../../src/lib/solver/model';
 import { createRng } from '../../../src/lib/solver/random';
 import { DEFAULT_SISR, recreate, regretConstruct, ruin } from '../../../src/lib/solver/sisr';
-import { DayRoutePool } from '../../../src/lib/solver/day-pool';
+import { DayRoutePool, markPublished, routeExchangeBuffer } from '../../../src/lib/solver/day-pool';
+import { mandatoryLeftOut, solve } from '../../../src/lib/solver/solve';
 import { State } from '../../../src/lib/solver/state';
 import { localSearch } from '../../../src/lib/solver/moves';
 import { checkSolution } from '../../../src/lib/solver/checker';
@@ -75,5 +76,42 @@ describe('packing a day from pooled routes (DayRoutePool)', () => {
     pool.add(f, s.routes[f].slice().reverse(), s.evals[f].cost + 1000);
     expect(pool.size).toBe(size);
     expect(pool.recombine(s)).toBeNull();
+  });
+
+  it('hands its routes to another search through a shared buffer, which then packs both searches\' routes', () => {
+    const p = randomProblem(81, { jobs: 14, farriers: 3, breaks: true });
+    const m = buildModel(p);
+    const a = new DayRoutePool(m), b = new DayRoutePool(m);
+    const s = new State(m);
+    regretConstruct(s, createRng(81));
+    for (let t = 0; t < 20; t++) {
+      const c = s.clone();
+      ruin(c, createRng(100 + t), DEFAULT_SISR);
+      a.addPlan(c);
+    }
+    const buf = routeExchangeBuffer(1 << 16);
+    // nothing published yet: the wait ends empty-handed
+    expect(b.collect(buf, 5)).toBe(0);
+    a.publish(buf);
+    expect(b.collect(buf, 5)).toBe(a.size);
+    expect(b.size).toBe(a.size);
+    const none = routeExchangeBuffer(1 << 10);
+    markPublished(none, 0);
+    expect(b.collect(none, 60000)).toBe(0);
+
+    // a search that packs another's routes with its own ends no dearer than alone, and cheaper on some days
+    let cheaper = 0;
+    for (const seed of [91, 92, 93, 94, 95, 96]) {
+      const day = randomProblem(seed, { jobs: 40, farriers: 4, breaks: true, tight: seed % 2 === 0 });
+      const stop = { maxIterations: 400 };
+      const shared = routeExchangeBuffer();
+      solve(day, { seed: seed + 1, stop, routeExchange: { publish: shared } });
+      const alone = solve(day, { seed, stop });
+      const together = solve(day, { seed, stop, routeExchange: { collect: [shared] } });
+      expect(mandatoryLeftOut(day, together)).toBeLessThanOrEqual(mandatoryLeftOut(day, alone));
+      if (mandatoryLeftOut(day, together) === mandatoryLeftOut(day, alone)) expect(together.cost).toBeLessThanOrEqual(alone.cost + 1e-6);
+      if (together.cost < alone.cost - 1e-6) cheaper++;
+    }
+    expect(cheaper).toBeGreaterThanOrEqual(2);
   });
 });
