@@ -207,6 +207,16 @@ export function buildModel(problem: Problem): Model {
   };
 }
 
+/**
+ * The same day with every optional job's leave-out cost multiplied by `k` (mandatory jobs keep
+ * theirs). Everything else is shared with `m`, so plans of the two models compare route by route.
+ */
+export function scaleOptionalLeaveOut(m: Model, k: number): Model {
+  const leaveOutCost = new Float64Array(m.leaveOutCost);
+  for (let j = 0; j < m.nJobs; j++) if (!m.mandatory[j]) leaveOutCost[j] *= k;
+  return { ...m, leaveOutCost };
+}
+
 /** Earliest time ≥ t inside one of the windows, or Infinity. */
 export function earliestIn(w: Float64Array, t: number): number {
   for (let k = 0; k < w.length; k += 2) {

@@ -1,4 +1,4 @@
-import { buildModel, type Model } from './model';
+import { buildModel, scaleOptionalLeaveOut, type Model } from './model';
 import { impossibleReason, type UnplannedReason } from './diagnose';
 import { localSearch } from './moves';
 import { createRng, type Rng } from './random';
@@ -27,6 +27,15 @@ const LEFT_OUT_SEED_SHARE = 0.25;
 const DAY_POOL_MAX_JOBS = 400;
 /** The pool is emptied after a packing once it holds this many routes. */
 const DAY_POOL_KEEP = 60000;
+/**
+ * Leave-out cost scales of optional jobs, one per annealing cycle in turn, on a day whose routes are
+ * packed: every other cycle searches as if leaving an optional job out cost a fifth less, so it
+ * passes through plans with one optional job more out and several days repacked around the gap.
+ * New best plans are judged at full cost, and the pool keeps those cycles' routes for packing at
+ * full cost. Without packing this gained nothing; with it the short run came closer to the long one
+ * (figures in docs/solver.md).
+ */
+const LEAVE_OUT_SCALES = [1, 0.8];
 /** Longest wait, under an iteration limit, for the routes of the searches beside this one. */
 const EXCHANGE_WAIT_MS = 60000;
 
@@ -38,12 +47,14 @@ export interface StopRule {
   noImprovementIterations?: number;
 }
 
-/** What the search reports while it runs (at most every 0.1 s, and at phase changes). */
+/** What the search reports while it runs (at most every 0.1 s, and at phase changes and each annealing cycle's end). */
 export interface Progress {
   iterations: number;
   seconds: number;
   bestCost: number;
   unplanned: number;
+  /** Mandatory jobs among the unplanned ones; `bestCost` leaves their cost out, so compare plans by this first. */
+  mandatoryUnplanned: number;
   farriersUsed: number;
   phase: 'construct' | 'fleet' | 'improve';
 }
@@ -134,7 +145,9 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
     const t = now() - t0;
     if (!force && t - lastProgress < 0.1) return;
     lastProgress = t;
-    opts.onProgress({ iterations, seconds: t, bestCost: reportedCost(m, best), unplanned: best.unassigned.size, farriersUsed: best.usedRoutes(), phase });
+    let mandatoryUnplanned = 0;
+    for (const j of best.unassigned) mandatoryUnplanned += m.mandatory[j];
+    opts.onProgress({ iterations, seconds: t, bestCost: reportedCost(m, best), unplanned: best.unassigned.size, mandatoryUnplanned, farriersUsed: best.usedRoutes(), phase });
   };
   let timeChecks = 0;
   const outOfTime = (limitSec = maxSec) => {
@@ -189,6 +202,11 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
     let cycleStart = 0;
     let sinceBest = 0;
     const eps = 1e-9 * Math.max(1, m.typicalArcCost);
+    // the model each cycle searches under (`LEAVE_OUT_SCALES`); `best` is always priced under `m`
+    const cycleModels = dayPool && m.mandatory.some((x) => x === 0)
+      ? LEAVE_OUT_SCALES.map((k) => (k === 1 ? m : scaleOptionalLeaveOut(m, k)))
+      : [m];
+    let cycleNo = 0;
     // interchangeable farriers (the benchmark fleets): recombine pooled routes at every cycle end
     const pool = m.fleetObjective && interchangeableFleet(m) ? new RoutePool() : null;
     if (pool) best.routes.forEach((r, f) => pool.add(r, best.evals[f].cost - m.fixedCost[f]));
@@ -228,7 +246,9 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
             if (next.cost < best.cost - eps) { best = next; improvements++; sinceBest = 0; }
           }
         }
-        cur = best.clone();
+        progress('improve', best, true);
+        const cm = cycleModels[++cycleNo % cycleModels.length];
+        cur = cm === m ? best.clone() : best.rebase(cm);
       }
       const T = annealTemperature(m, (iterations - cycleStart) / cycle);
       const cand = cur.clone();
@@ -244,12 +264,13 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
       if (pool) for (const f of cand.touched) if (cand.routes[f].length) pool.add(cand.routes[f], cand.evals[f].cost - m.fixedCost[f]);
       if (cand.cost < cur.cost - T * Math.log(1 - rng.next() + 1e-300)) {
         cur = cand;
-        if (cand.cost < best.cost - eps) {
+        if (cand.costUnder(m) < best.cost - eps) {
           const focus = new Set(cand.touched);
-          const polished = cand.clone();
+          const polished = cand.m === m ? cand.clone() : cand.rebase(m);
           localSearch(polished, rng, 15, 50, focus);
           best = polished;
-          if (polished.cost < cur.cost) cur = polished.clone();
+          const back = cur.m === m ? polished.clone() : polished.rebase(cur.m);
+          if (back.cost < cur.cost) cur = back;
           improvements++;
           sinceBest = 0;
         }

@@ -117,11 +117,31 @@ export class State {
     return s;
   }
 
+  /**
+   * A copy of this plan priced under `m`, a model of the same day that differs only in leave-out
+   * costs (`scaleOptionalLeaveOut`): routes and their evaluations carry over unchanged.
+   */
+  rebase(m: Model): State {
+    if (m.nJobs !== this.m.nJobs || m.nFarriers !== this.m.nFarriers || m.arcSec !== this.m.arcSec) throw new Error('rebase: not the same day');
+    const s = this.clone();
+    (s as { m: Model }).m = m;
+    s.recomputeCost();
+    return s;
+  }
+
   recomputeCost(): number {
     let c = 0;
     for (const e of this.evals) c += e.cost;
     for (const j of this.unassigned) c += this.m.leaveOutCost[j];
     this.cost = c;
+    return c;
+  }
+
+  /** This plan's cost under `m`, a model of the same day that may price leaving jobs out differently. */
+  costUnder(m: Model): number {
+    if (m === this.m) return this.cost;
+    let c = this.cost;
+    for (const j of this.unassigned) c += m.leaveOutCost[j] - this.m.leaveOutCost[j];
     return c;
   }
 

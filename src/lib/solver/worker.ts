@@ -117,7 +117,8 @@ export async function solveInWorker(
   const report = (k: number, p: Progress) => {
     latest[k] = p;
     let best = p;
-    for (const q of latest) if (q && q.bestCost < best.bestCost) best = q;
+    // as `bestOf` judges the final plans: fewest mandatory jobs left out, then lowest cost
+    for (const q of latest) if (q && (q.mandatoryUnplanned < best.mandatoryUnplanned || (q.mandatoryUnplanned === best.mandatoryUnplanned && q.bestCost < best.bestCost))) best = q;
     let iterations = 0, seconds = 0;
     for (const q of latest) if (q) { iterations += q.iterations; seconds = Math.max(seconds, q.seconds); }
     w.onProgress!({ ...best, iterations, seconds });

@@ -1,8 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { solve } from '../../../src/lib/solver/solve';
+import { mandatoryLeftOut, solve } from '../../../src/lib/solver/solve';
 import { checkSolution } from '../../../src/lib/solver/checker';
 import { createProblem, type Problem } from '../../../src/lib/solver/problem';
 import { randomProblem } from './helpers';
+import { farrierDay } from '../../../src/lib/solver/invented-day';
 
 /** Whether the independent checker accepts job `jobId` alone on some farrier's route. */
 function feasibleAlone(p: Problem, jobId: string): boolean {
@@ -106,5 +107,30 @@ describe('unplanned reasons for jobs that cannot be done', () => {
     const r = solve(p, { seed: 1, stop: { maxIterations: 50 } });
     expect(r.routes[0].stops.flatMap((s) => s.jobIds)).toEqual(['j1']);
     expect(r.routes[1].stops).toEqual([]);
+  });
+});
+
+describe('cycles that price leaving optional jobs out lower', () => {
+  it('never let the reported best plan get dearer at full cost, and end with a plan the checker prices the same', () => {
+    for (const seed of [1, 7]) {
+      // an invented day with more work than fits, so optional jobs are left out and every other cycle is scaled
+      const p = farrierDay({ seed, farriers: 3, jobs: 30, barns: 20, sideM: 30000 });
+      const reported: { cost: number; mandatory: number }[] = [];
+      const r = solve(p, { seed, stop: { maxIterations: 8000, noImprovementIterations: 1e9 }, onProgress: (x) => reported.push({ cost: x.bestCost, mandatory: x.mandatoryUnplanned }) });
+      // a progress report at each cycle end: cycles of 500, 1,000, 2,000 and 4,000 iterations, the last cut to the run's end
+      expect(reported.length).toBeGreaterThanOrEqual(5);
+      // fewer mandatory jobs left out, or as many at no higher cost (`bestCost` leaves mandatory jobs' cost out)
+      for (let i = 1; i < reported.length; i++) {
+        const [a, b] = [reported[i - 1], reported[i]];
+        expect(b.mandatory).toBeLessThanOrEqual(a.mandatory);
+        if (b.mandatory === a.mandatory) expect(b.cost).toBeLessThanOrEqual(a.cost + 1e-6);
+      }
+      expect(reported[reported.length - 1].mandatory).toBe(mandatoryLeftOut(p, r));
+      const c = checkSolution(p, r, { complete: true });
+      expect(c.violations).toEqual([]);
+      expect(r.unplanned.some((u) => p.jobs.find((j) => j.id === u.jobId)!.optional)).toBe(true);
+      expect(r.cost).toBeCloseTo(c.costs.totalCents, 6);
+      expect(r.cost).toBeCloseTo(reported[reported.length - 1].cost, 6);
+    }
   });
 });

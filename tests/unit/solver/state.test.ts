@@ -1,11 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { buildModel } from '../../../src/lib/solver/model';
+import { buildModel, scaleOptionalLeaveOut } from '../../../src/lib/solver/model';
 import { createRng } from '../../../src/lib/solver/random';
 import { evalRoute } from '../../../src/lib/solver/route-eval';
 import { regretConstruct, regretRecreate, DEFAULT_SISR, ruinAround, leftOutCandidates, putBack, ejectFor, randomLeftOut } from '../../../src/lib/solver/sisr';
 import { materialize, State } from '../../../src/lib/solver/state';
 import { checkSolution } from '../../../src/lib/solver/checker';
-import { randomProblem } from './helpers';
+import { leaveOut, randomProblem } from './helpers';
 import { createProblem } from '../../../src/lib/solver/problem';
 
 describe('piece evaluation (State.costOf)', () => {
@@ -335,5 +335,40 @@ describe('insertion memo and shared route arrays', () => {
       checked++;
     }
     expect(checked).toBeGreaterThan(10);
+  });
+});
+
+describe('a plan priced under other leave-out costs (scaleOptionalLeaveOut, State.rebase, State.costUnder)', () => {
+  it('scales only optional jobs, and prices the same routes and left-out jobs under either model', () => {
+    // a mandatory job left out costs about 1e13, so sums agree to a relative 1e-12, not to cents
+    const near = (a: number, b: number) => expect(Math.abs(a - b)).toBeLessThanOrEqual(1e-12 * Math.max(1, Math.abs(b)));
+    let leftOutOptional = 0;
+    for (const seed of [61, 62, 63]) {
+      // a tight day, so that some optional jobs are left out
+      const p = randomProblem(seed, { jobs: 22, farriers: 3, breaks: true, tight: true });
+      const m = buildModel(p);
+      const k = 0.8;
+      const scaled = scaleOptionalLeaveOut(m, k);
+      for (let j = 0; j < m.nJobs; j++) expect(scaled.leaveOutCost[j]).toBeCloseTo(p.jobs[j].optional ? k * leaveOut(p, j) : leaveOut(p, j), 6);
+      const s = new State(m);
+      regretConstruct(s, createRng(seed));
+      const r = s.rebase(scaled);
+      // recount from the routes (exact evaluator) and the problem's penalties
+      let routes = 0, leftOut = 0;
+      s.routes.forEach((seq, f) => { routes += evalRoute(m, f, seq).cost; });
+      for (const j of s.unassigned) leftOut += (p.jobs[j].optional ? k : 1) * leaveOut(p, j);
+      for (const j of s.unassigned) if (p.jobs[j].optional) leftOutOptional++;
+      expect(r.m).toBe(scaled);
+      expect(r.routes).toEqual(s.routes);
+      near(r.cost, routes + leftOut);
+      expect(r.costUnder(scaled)).toBe(r.cost);
+      near(r.costUnder(m), s.cost);
+      near(s.costUnder(scaled), r.cost);
+      // the source keeps its own model and cost
+      expect(s.m).toBe(m);
+      near(s.cost, s.recomputeCost());
+      expect(() => s.rebase(buildModel(randomProblem(seed + 100, { jobs: 12, farriers: 2 })))).toThrow(/same day/);
+    }
+    expect(leftOutOptional).toBeGreaterThan(0);
   });
 });
