@@ -248,7 +248,7 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
         }
         progress('improve', best, true);
         const cm = cycleModels[++cycleNo % cycleModels.length];
-        cur = cm === m ? best.clone() : best.rebase(cm);
+        cur = best.rebase(cm);
       }
       const T = annealTemperature(m, (iterations - cycleStart) / cycle);
       const cand = cur.clone();
@@ -266,10 +266,10 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
         cur = cand;
         if (cand.costUnder(m) < best.cost - eps) {
           const focus = new Set(cand.touched);
-          const polished = cand.m === m ? cand.clone() : cand.rebase(m);
+          const polished = cand.rebase(m);
           localSearch(polished, rng, 15, 50, focus);
           best = polished;
-          const back = cur.m === m ? polished.clone() : polished.rebase(cur.m);
+          const back = polished.rebase(cur.m);
           if (back.cost < cur.cost) cur = back;
           improvements++;
           sinceBest = 0;
@@ -371,6 +371,11 @@ export function mandatoryLeftOut(problem: Problem, result: SolveResult): number 
   return result.unplanned.filter((u) => !optional.has(u.jobId)).length;
 }
 
+/** Whether a plan with `mandatoryA` mandatory jobs left out at `costA` beats one with `mandatoryB` at `costB`: fewer mandatory jobs left out first, then lower cost. */
+export function betterPlan(mandatoryA: number, costA: number, mandatoryB: number, costB: number): boolean {
+  return mandatoryA < mandatoryB || (mandatoryA === mandatoryB && costA < costB);
+}
+
 /**
  * The better of several plans for one problem: fewest mandatory jobs left out, then lowest cost;
  * ties go to the earlier plan. Used to pick among side-by-side searches.
@@ -378,8 +383,7 @@ export function mandatoryLeftOut(problem: Problem, result: SolveResult): number 
 export function bestOf(problem: Problem, results: SolveResult[]): SolveResult {
   let best = results[0];
   for (const r of results.slice(1)) {
-    const d = mandatoryLeftOut(problem, r) - mandatoryLeftOut(problem, best);
-    if (d < 0 || (d === 0 && r.cost < best.cost)) best = r;
+    if (betterPlan(mandatoryLeftOut(problem, r), r.cost, mandatoryLeftOut(problem, best), best.cost)) best = r;
   }
   return best;
 }

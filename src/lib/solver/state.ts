@@ -119,9 +119,11 @@ export class State {
 
   /**
    * A copy of this plan priced under `m`, a model of the same day that differs only in leave-out
-   * costs (`scaleOptionalLeaveOut`): routes and their evaluations carry over unchanged.
+   * costs (`scaleOptionalLeaveOut`): routes and their evaluations carry over unchanged. Under its
+   * own model it is a plain `clone`.
    */
   rebase(m: Model): State {
+    if (m === this.m) return this.clone();
     if (m.nJobs !== this.m.nJobs || m.nFarriers !== this.m.nFarriers || m.arcSec !== this.m.arcSec) throw new Error('rebase: not the same day');
     const s = this.clone();
     (s as { m: Model }).m = m;

@@ -2,7 +2,7 @@ import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import type { Problem } from './problem';
-import { bestOf, packsRoutes, type Progress, type SolveOptions, type SolveResult } from './solve';
+import { bestOf, betterPlan, packsRoutes, type Progress, type SolveOptions, type SolveResult } from './solve';
 import { routeExchangeBuffer } from './day-pool';
 
 /** Options for running the engine off the main thread. */
@@ -117,8 +117,8 @@ export async function solveInWorker(
   const report = (k: number, p: Progress) => {
     latest[k] = p;
     let best = p;
-    // as `bestOf` judges the final plans: fewest mandatory jobs left out, then lowest cost
-    for (const q of latest) if (q && (q.mandatoryUnplanned < best.mandatoryUnplanned || (q.mandatoryUnplanned === best.mandatoryUnplanned && q.bestCost < best.bestCost))) best = q;
+    // judged as `bestOf` judges the final plans
+    for (const q of latest) if (q && betterPlan(q.mandatoryUnplanned, q.bestCost, best.mandatoryUnplanned, best.bestCost)) best = q;
     let iterations = 0, seconds = 0;
     for (const q of latest) if (q) { iterations += q.iterations; seconds = Math.max(seconds, q.seconds); }
     w.onProgress!({ ...best, iterations, seconds });
