@@ -32,8 +32,18 @@ export class DayRoutePool {
 
   get size(): number { return this.count; }
 
-  /** Adds farrier f's route `seq` of cost `cost` (feasible; the cheaper order of one job set is kept). */
-  add(f: number, seq: number[], cost: number): void {
+  /** Routes added since the last `shareTo`, when this search shares its routes during the run. */
+  private fresh: Column[] | null = null;
+  /** Numbers of route data this search has written to its log. */
+  private logEnd = 0;
+  /** How far each other search's log has been read. */
+  private readonly logRead = new Map<SharedArrayBuffer, number>();
+
+  /**
+   * Adds farrier f's route `seq` of cost `cost` (feasible; the cheaper order of one job set is kept).
+   * A route another search met (`shared`) is not logged again for sharing.
+   */
+  add(f: number, seq: number[], cost: number, shared = false): void {
     if (!seq.length) return;
     let a = 0, b = 0;
     for (const j of seq) { a ^= this.hashA[j]; b ^= this.hashB[j]; }
@@ -45,8 +55,10 @@ export class DayRoutePool {
       return;
     }
     if (this.count >= this.maxSize) return;
-    map.set(key, { farrier: f, seq: seq.slice(), cost });
+    const c = { farrier: f, seq: seq.slice(), cost };
+    map.set(key, c);
     this.count++;
+    if (this.fresh && !shared) this.fresh.push(c);
   }
 
   /** Adds every planned route of a plan. */
@@ -84,6 +96,64 @@ export class DayRoutePool {
       const seq = Array.from(data.subarray(q + 3, q + 3 + n));
       q += 3 + n;
       if (f >= 0 && f < this.sets.length && seq.every((j) => j >= 0 && j < this.m.nJobs)) { this.add(f, seq, cost); read++; }
+    }
+    return read;
+  }
+
+  /** Starts keeping the routes added from now on for `shareTo`. */
+  logRoutes(): void {
+    this.fresh ??= [];
+  }
+
+  /**
+   * Appends the routes met since the last call to this search's log (`routeLogBuffer`), as many as
+   * fit, and marks cycle `cycle` published.
+   */
+  shareTo(log: SharedArrayBuffer, cycle: number): void {
+    const { head, data } = logViews(log);
+    let q = this.logEnd;
+    for (const c of this.fresh ?? []) {
+      if (q + 3 + c.seq.length > data.length) break;
+      data[q++] = c.farrier; data[q++] = c.cost; data[q++] = c.seq.length;
+      for (const j of c.seq) data[q++] = j;
+    }
+    this.fresh = [];
+    this.logEnd = q;
+    if (cycle < LOG_CYCLES) {
+      head[LOG_HEAD + cycle] = q;
+      Atomics.store(head, 1, cycle + 1);
+      Atomics.notify(head, 1);
+    }
+  }
+
+  /**
+   * Adds the routes the other searches logged up to the end of their cycle `cycle`, waiting up to
+   * `waitMs` for each to get there (or end); with no wait, whatever they have published so far.
+   * Under an iteration limit the searches' cycles line up, so with a wait what each search reads is
+   * the same in every run. Returns how many routes were read.
+   */
+  takeFrom(logs: SharedArrayBuffer[], cycle: number, waitMs: number): number {
+    let read = 0;
+    const until = performance.now() + waitMs;
+    for (const log of logs) {
+      const { head, data } = logViews(log);
+      for (;;) {
+        const published = Atomics.load(head, 1);
+        if (published > cycle || cycle >= LOG_CYCLES || Atomics.load(head, 2) === 1) break;
+        const left = until - performance.now();
+        if (left <= 0) break;
+        Atomics.wait(head, 1, published, left);
+      }
+      const published = Math.min(Atomics.load(head, 1), cycle + 1, LOG_CYCLES);
+      const end = published > 0 ? head[LOG_HEAD + published - 1] : 0;
+      let q = this.logRead.get(log) ?? 0;
+      while (q < end) {
+        const f = data[q], cost = data[q + 1], n = data[q + 2];
+        const seq = Array.from(data.subarray(q + 3, q + 3 + n));
+        q += 3 + n;
+        if (f >= 0 && f < this.sets.length && seq.every((j) => j >= 0 && j < this.m.nJobs)) { this.add(f, seq, cost, true); read++; }
+      }
+      this.logRead.set(log, Math.max(q, this.logRead.get(log) ?? 0));
     }
     return read;
   }
@@ -141,6 +211,29 @@ export class DayRoutePool {
 /** Shared buffer for one search's routes (`DayRoutePool.publish`), 8 MB: about 60,000 routes of ten jobs. */
 export function routeExchangeBuffer(bytes = 8 * 1024 * 1024): SharedArrayBuffer {
   return new SharedArrayBuffer(bytes);
+}
+
+/** Route log layout: Int32 head (0: unused, 1: cycles published, 2: ended), end offsets per cycle, then route data. */
+const LOG_HEAD = 4;
+const LOG_CYCLES = 4096;
+
+function logViews(log: SharedArrayBuffer): { head: Int32Array; data: Float64Array } {
+  return { head: new Int32Array(log, 0, LOG_HEAD + LOG_CYCLES), data: new Float64Array(log, (LOG_HEAD + LOG_CYCLES) * 4) };
+}
+
+/**
+ * Shared buffer for one search's log of the routes it meets (`DayRoutePool.shareTo`), which the
+ * searches beside it read at each annealing cycle end; 16 MB, about 150,000 routes of ten jobs.
+ */
+export function routeLogBuffer(bytes = 16 * 1024 * 1024): SharedArrayBuffer {
+  return new SharedArrayBuffer(bytes);
+}
+
+/** Marks a search's route log ended: the others stop waiting for its next cycles. */
+export function endRouteLog(log: SharedArrayBuffer): void {
+  const head = new Int32Array(log, 0, LOG_HEAD);
+  Atomics.store(head, 2, 1);
+  Atomics.notify(head, 1);
 }
 
 /** Marks `buf` ready with `length` numbers of routes (0 when a search had none to give). */

@@ -6,7 +6,7 @@ import { evalRoute } from './route-eval';
 import { annealTemperature, DEFAULT_SISR, FEW_LEFT_OUT, greedyConstruct, leftOutCandidates, putBack, randomLeftOut, recreate, regretConstruct, ruin, ruinAround } from './sisr';
 import { State } from './state';
 import { interchangeableFleet, recombine, RoutePool } from './set-partition';
-import { DayRoutePool, markPublished } from './day-pool';
+import { DayRoutePool, endRouteLog, markPublished } from './day-pool';
 import type { Problem } from './problem';
 import type { RouteTotals } from './checker';
 
@@ -71,10 +71,18 @@ export interface SolveOptions {
   /**
    * Route exchange between side-by-side searches (`solveInWorker`): a search with `publish` writes
    * the routes it met there when it ends, instead of packing them itself; a search with `collect`
-   * waits for the others' routes before its last packing and packs them all together.
+   * waits for the others' routes before its last packing and packs them all together. With `share`,
+   * the searches also pack each other's routes at every annealing cycle end (`RouteShare`).
    */
-  routeExchange?: { publish?: SharedArrayBuffer; collect?: SharedArrayBuffer[] };
+  routeExchange?: { publish?: SharedArrayBuffer; collect?: SharedArrayBuffer[]; share?: RouteShare };
 }
+
+/**
+ * Route sharing during the run between side-by-side searches: at each annealing cycle end a search
+ * logs the routes it met in `mine` and packs them together with those the others logged in theirs
+ * (`routeLogBuffer`), so each search's plan can take routes the other search found.
+ */
+export interface RouteShare { mine: SharedArrayBuffer; others: SharedArrayBuffer[] }
 
 /** One job's work inside a stop. */
 export interface PlannedJob { jobId: string; startSec: number; endSec: number }
@@ -207,6 +215,9 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
       ? LEAVE_OUT_SCALES.map((k) => (k === 1 ? m : scaleOptionalLeaveOut(m, k)))
       : [m];
     let cycleNo = 0;
+    const share = opts.routeExchange?.share;
+    if (share) dayPool?.logRoutes();
+    let shareCycle = 0;
     // interchangeable farriers (the benchmark fleets): recombine pooled routes at every cycle end
     const pool = m.fleetObjective && interchangeableFleet(m) ? new RoutePool() : null;
     if (pool) best.routes.forEach((r, f) => pool.add(r, best.evals[f].cost - m.fixedCost[f]));
@@ -235,6 +246,11 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
       if (iterations - cycleStart >= cycle) {
         cycleStart = iterations;
         cycle = nextCycle(cycle, maxCycle, iterationsLeft());
+        if (dayPool && share) {
+          dayPool.shareTo(share.mine, shareCycle);
+          dayPool.takeFrom(share.others, shareCycle, maxSec === Infinity ? EXCHANGE_WAIT_MS : 0);
+          shareCycle++;
+        }
         packDay();
         if (pool) {
           const routes = recombine(best, pool);
@@ -277,6 +293,7 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
       }
       progress('improve', best);
     }
+    if (share) endRouteLog(share.mine);
     const exchange = opts.routeExchange;
     if (exchange?.publish) {
       if (dayPool) { dayPool.publish(exchange.publish); published = true; }
@@ -291,6 +308,7 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
   }
   // a search with no routes to give still tells the others not to wait
   if (opts.routeExchange?.publish && !published) markPublished(opts.routeExchange.publish, 0);
+  if (opts.routeExchange?.share) endRouteLog(opts.routeExchange.share.mine);
   progress('improve', best, true);
   return buildResult(m, best, reasons, {
     iterations, seconds: now() - t0, firstFeasibleSeconds, improvements, farriersUsed: best.usedRoutes(), stopReason, seed: opts.seed,

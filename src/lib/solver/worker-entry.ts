@@ -11,7 +11,7 @@ import { parentPort, workerData } from 'node:worker_threads';
 import { createProblem } from './problem';
 import { solve, type SolveOptions } from './solve';
 import { warmUpEngine } from './warm-up';
-import { markPublished } from './day-pool';
+import { endRouteLog, markPublished } from './day-pool';
 
 interface SolveJob {
   problem: unknown;
@@ -32,6 +32,7 @@ function run(job: SolveJob, runId?: number): void {
   } catch (e) {
     // the searches beside this one must not wait for its routes
     if (job.opts.routeExchange?.publish) markPublished(job.opts.routeExchange.publish, 0);
+    if (job.opts.routeExchange?.share) endRouteLog(job.opts.routeExchange.share.mine);
     const err = e as Error;
     parentPort!.postMessage({ type: 'error', runId, error: { name: err.name, message: err.message } });
   }

@@ -3,7 +3,7 @@ import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import type { Problem } from './problem';
 import { bestOf, betterPlan, packsRoutes, type Progress, type SolveOptions, type SolveResult } from './solve';
-import { routeExchangeBuffer } from './day-pool';
+import { routeExchangeBuffer, routeLogBuffer } from './day-pool';
 
 /** Options for running the engine off the main thread. */
 export interface WorkerSolveOptions {
@@ -124,8 +124,14 @@ export async function solveInWorker(
     w.onProgress!({ ...best, iterations, seconds });
   };
   // on a farrier day the first search packs every search's routes together at the end
+  // and every search packs the others' routes with its own at each annealing cycle end
   const buffers = packsRoutes(problem) ? Array.from({ length: n - 1 }, () => routeExchangeBuffer()) : null;
-  const exchange = (k: number) => (!buffers ? {} : { routeExchange: k === 0 ? { collect: buffers } : { publish: buffers[k - 1] } });
+  const logs = buffers ? Array.from({ length: n }, () => routeLogBuffer()) : null;
+  const exchange = (k: number) => {
+    if (!buffers || !logs) return {};
+    const share = { mine: logs[k], others: logs.filter((_, i) => i !== k) };
+    return { routeExchange: k === 0 ? { collect: buffers, share } : { publish: buffers[k - 1], share } };
+  };
   const runs = await Promise.allSettled(Array.from({ length: n }, (_, k) =>
     oneSearch(problem, { ...opts, ...exchange(k), seed: opts.seed + SEARCH_SEED_STEP * k }, { ...w, onProgress: w.onProgress ? (p) => report(k, p) : undefined })));
   const failed = runs.find((r) => r.status === 'rejected');

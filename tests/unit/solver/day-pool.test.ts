@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { buildModel } from '../../../src/lib/solver/model';
 import { createRng } from '../../../src/lib/solver/random';
 import { DEFAULT_SISR, recreate, regretConstruct, ruin } from '../../../src/lib/solver/sisr';
-import { DayRoutePool, markPublished, routeExchangeBuffer } from '../../../src/lib/solver/day-pool';
+import { DayRoutePool, endRouteLog, markPublished, routeExchangeBuffer, routeLogBuffer } from '../../../src/lib/solver/day-pool';
 import { mandatoryLeftOut, solve } from '../../../src/lib/solver/solve';
 import { State } from '../../../src/lib/solver/state';
 import { localSearch } from '../../../src/lib/solver/moves';
@@ -113,5 +113,42 @@ describe('packing a day from pooled routes (DayRoutePool)', () => {
       if (together.cost < alone.cost - 1e-6) cheaper++;
     }
     expect(cheaper).toBeGreaterThanOrEqual(2);
+  });
+
+  it('shares the routes it meets cycle by cycle through a log another search reads up to the same cycle', () => {
+    const p = randomProblem(82, { jobs: 16, farriers: 3, breaks: true });
+    const m = buildModel(p);
+    const a = new DayRoutePool(m), b = new DayRoutePool(m), c = new DayRoutePool(m);
+    a.logRoutes();
+    b.logRoutes();
+    const s = new State(m);
+    regretConstruct(s, createRng(82));
+    const ruined = (t: number) => { const x = s.clone(); ruin(x, createRng(200 + t), DEFAULT_SISR); recreate(x, createRng(300 + t), DEFAULT_SISR); return x; };
+    const logA = routeLogBuffer(1 << 20), logB = routeLogBuffer(1 << 20);
+    for (let t = 0; t < 10; t++) a.addPlan(ruined(t));
+    const cycle0 = a.size;
+    a.shareTo(logA, 0);
+    for (let t = 10; t < 30; t++) a.addPlan(ruined(t));
+    a.shareTo(logA, 1);
+    expect(a.size).toBeGreaterThan(cycle0);
+    // at its cycle 0, b reads a's routes up to a's cycle 0, though a has logged cycle 1 by now
+    expect(b.takeFrom([logA], 0, 0)).toBe(cycle0);
+    expect(b.size).toBe(cycle0);
+    expect(b.takeFrom([logA], 1, 0)).toBe(a.size - cycle0);
+    expect(b.size).toBe(a.size);
+    // routes b took from a are not logged again: b's log holds only what b met itself
+    b.shareTo(logB, 0);
+    expect(c.takeFrom([logB], 0, 0)).toBe(0);
+    for (let t = 100; t < 110; t++) b.addPlan(ruined(t));
+    const own = b.size - a.size;
+    b.shareTo(logB, 1);
+    expect(own).toBeGreaterThan(0);
+    expect(c.takeFrom([logB], 1, 0)).toBe(own);
+    // waiting for a cycle not yet logged ends empty-handed after the wait; once the log has ended
+    // the wait is over at once (a 60-s wait would outlast the test's time limit)
+    const quiet = routeLogBuffer(1 << 16);
+    expect(c.takeFrom([quiet], 0, 5)).toBe(0);
+    endRouteLog(quiet);
+    expect(c.takeFrom([quiet], 3, 60000)).toBe(0);
   });
 });
