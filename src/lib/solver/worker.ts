@@ -95,12 +95,14 @@ export function warmSolverWorker(): void {
 }
 
 /**
- * Runs the engine off the main thread: `searches` independent searches (default 2) side by side,
- * each `solve` in its own worker thread with its own seed, and returns the best plan. On a day with
- * optional jobs a single run sometimes settles on a plan that leaves out a different job than the
- * best plan does, and only a long run gets out of it; a second search started elsewhere often does
- * not fall into the same place, so two searches for 3 s on two cores come closer to a long run than
- * one (figures in docs/solver.md). Deterministic for a seed and an iteration limit, like `solve`.
+ * Runs the engine off the main thread: `searches` searches (default 2) side by side, each `solve` in
+ * its own worker thread with its own seed, and returns the best plan. On a day with optional jobs a
+ * single run sometimes settles on a plan that leaves out a different job than the best plan does,
+ * and only a long run gets out of it; a second search started elsewhere often does not fall into
+ * the same place, so two searches for 3 s on two cores come closer to a long run than one (figures
+ * in docs/solver.md). On a day that packs its routes the searches share the routes they meet at
+ * every annealing cycle end (`RouteShare`) and the first packs all of them at the end.
+ * Deterministic for a seed and an iteration limit, like `solve`.
  * Progress reports the total iterations and the best cost so far; cancelling stops every search,
  * each returning its best plan. A failure in any search (a ProblemError, say) rejects the whole run
  * once every search has ended.
