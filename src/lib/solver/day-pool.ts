@@ -153,7 +153,7 @@ export class DayRoutePool {
         q += 3 + n;
         if (f >= 0 && f < this.sets.length && seq.every((j) => j >= 0 && j < this.m.nJobs)) { this.add(f, seq, cost, true); read++; }
       }
-      this.logRead.set(log, Math.max(q, this.logRead.get(log) ?? 0));
+      this.logRead.set(log, q);
     }
     return read;
   }
