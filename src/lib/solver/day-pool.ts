@@ -61,6 +61,11 @@ export class DayRoutePool {
     if (this.fresh && !shared) this.fresh.push(c);
   }
 
+  /** Every pooled route, farrier by farrier. */
+  private *columns(): Generator<Column> {
+    for (const map of this.sets) yield* map.values();
+  }
+
   /** Adds every planned route of a plan. */
   addPlan(s: State): void {
     for (let f = 0; f < s.routes.length; f++) if (s.evals[f].feasible) this.add(f, s.routes[f], s.evals[f].cost);
@@ -71,14 +76,7 @@ export class DayRoutePool {
    * farrier, cost, length and jobs of each, then marks the buffer ready.
    */
   publish(buf: SharedArrayBuffer): void {
-    const data = new Float64Array(buf, 8);
-    let q = 0;
-    outer: for (const map of this.sets) for (const c of map.values()) {
-      if (q + 3 + c.seq.length > data.length) break outer;
-      data[q++] = c.farrier; data[q++] = c.cost; data[q++] = c.seq.length;
-      for (const j of c.seq) data[q++] = j;
-    }
-    markPublished(buf, q);
+    markPublished(buf, writeRoutes(new Float64Array(buf, 8), 0, this.columns()));
   }
 
   /**
@@ -89,15 +87,7 @@ export class DayRoutePool {
     const head = new Int32Array(buf, 0, 2);
     if (Atomics.load(head, 0) === 0) Atomics.wait(head, 0, 0, waitMs);
     if (Atomics.load(head, 0) !== 1) return 0;
-    const data = new Float64Array(buf, 8), end = head[1];
-    let q = 0, read = 0;
-    while (q < end) {
-      const f = data[q], cost = data[q + 1], n = data[q + 2];
-      const seq = Array.from(data.subarray(q + 3, q + 3 + n));
-      q += 3 + n;
-      if (f >= 0 && f < this.sets.length && seq.every((j) => j >= 0 && j < this.m.nJobs)) { this.add(f, seq, cost); read++; }
-    }
-    return read;
+    return this.readRoutes(new Float64Array(buf, 8), 0, head[1], false).read;
   }
 
   /** Starts keeping the routes added from now on for `shareTo`. */
@@ -111,12 +101,7 @@ export class DayRoutePool {
    */
   shareTo(log: SharedArrayBuffer, cycle: number): void {
     const { head, data } = logViews(log);
-    let q = this.logEnd;
-    for (const c of this.fresh ?? []) {
-      if (q + 3 + c.seq.length > data.length) break;
-      data[q++] = c.farrier; data[q++] = c.cost; data[q++] = c.seq.length;
-      for (const j of c.seq) data[q++] = j;
-    }
+    const q = writeRoutes(data, this.logEnd, this.fresh ?? []);
     this.fresh = [];
     this.logEnd = q;
     if (cycle < LOG_CYCLES) {
@@ -146,16 +131,23 @@ export class DayRoutePool {
       }
       const published = Math.min(Atomics.load(head, 1), cycle + 1, LOG_CYCLES);
       const end = published > 0 ? head[LOG_HEAD + published - 1] : 0;
-      let q = this.logRead.get(log) ?? 0;
-      while (q < end) {
-        const f = data[q], cost = data[q + 1], n = data[q + 2];
-        const seq = Array.from(data.subarray(q + 3, q + 3 + n));
-        q += 3 + n;
-        if (f >= 0 && f < this.sets.length && seq.every((j) => j >= 0 && j < this.m.nJobs)) { this.add(f, seq, cost, true); read++; }
-      }
-      this.logRead.set(log, q);
+      const r = this.readRoutes(data, this.logRead.get(log) ?? 0, end, true);
+      read += r.read;
+      this.logRead.set(log, r.end);
     }
     return read;
+  }
+
+  /** Adds the routes written in data[q..end) (`writeRoutes`), skipping any that name no farrier or job of this day. */
+  private readRoutes(data: Float64Array, q: number, end: number, shared: boolean): { read: number; end: number } {
+    let read = 0;
+    while (q < end) {
+      const f = data[q], cost = data[q + 1], n = data[q + 2];
+      const seq = Array.from(data.subarray(q + 3, q + 3 + n));
+      q += 3 + n;
+      if (f >= 0 && f < this.sets.length && seq.every((j) => j >= 0 && j < this.m.nJobs)) { this.add(f, seq, cost, shared); read++; }
+    }
+    return { read, end: q };
   }
 
   clear(): void {
@@ -211,6 +203,19 @@ export class DayRoutePool {
 /** Shared buffer for one search's routes (`DayRoutePool.publish`), 8 MB: about 60,000 routes of ten jobs. */
 export function routeExchangeBuffer(bytes = 8 * 1024 * 1024): SharedArrayBuffer {
   return new SharedArrayBuffer(bytes);
+}
+
+/**
+ * Writes routes into `data` from position `q` (farrier, cost, length and jobs of each) until one
+ * does not fit; returns the position after the last one written.
+ */
+function writeRoutes(data: Float64Array, q: number, cols: Iterable<Column>): number {
+  for (const c of cols) {
+    if (q + 3 + c.seq.length > data.length) break;
+    data[q++] = c.farrier; data[q++] = c.cost; data[q++] = c.seq.length;
+    for (const j of c.seq) data[q++] = j;
+  }
+  return q;
 }
 
 /** Route log layout: Int32 head (0: unused, 1: cycles published, 2: ended), end offsets per cycle, then route data. */

@@ -293,6 +293,7 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
       }
       progress('improve', best);
     }
+    // before any wait for the other search's routes below, so that it never waits for this one's next cycle
     if (share) endRouteLog(share.mine);
     const exchange = opts.routeExchange;
     if (exchange?.publish) {
@@ -308,6 +309,7 @@ export function solve(problem: Problem, opts: SolveOptions): SolveResult {
   }
   // a search with no routes to give still tells the others not to wait
   if (opts.routeExchange?.publish && !published) markPublished(opts.routeExchange.publish, 0);
+  // also when the search never reached its annealing loop
   if (opts.routeExchange?.share) endRouteLog(opts.routeExchange.share.mine);
   progress('improve', best, true);
   return buildResult(m, best, reasons, {
