@@ -12,7 +12,7 @@
  */
 import { basename, resolve } from 'node:path';
 import { runSolomon, runTsplib } from './lib/runs';
-import { runFarrierDay, runSuite } from './lib/suite';
+import { judgeFarrierDay, runFarrierDay, runSuite } from './lib/suite';
 
 function arg(name: string): string | undefined {
   const i = process.argv.indexOf(name);
@@ -55,11 +55,11 @@ async function main() {
     let within = 0, misses = 0;
     for (const s of seeds) {
       const r = await runFarrierDay(s, short, ref, its, num('--searches', 2));
-      const worse = r.extraMandatoryOut > 0 ? ` but leaves ${r.extraMandatoryOut} more mandatory job(s) out` : '';
-      process.stdout.write(`seed ${s}\n  ${r.lines[0]}\n  ${r.lines[1]}\n  ${shortName} result is ${r.gapPct.toFixed(2)} % above the ${refName} result${worse}\n`);
+      const judged = judgeFarrierDay(r, shortName, refName);
+      process.stdout.write(`seed ${s}\n  ${r.lines[0]}\n  ${r.lines[1]}\n  ${judged.text}\n`);
       gaps.push(r.gapPct);
-      if (r.extraMandatoryOut > 0) misses++;
-      else if (r.gapPct <= 1) within++;
+      if (judged.worse) misses++;
+      if (judged.within) within++;
       if (!r.feasible) process.exitCode = 1;
     }
     const mean = gaps.reduce((a, b) => a + b, 0) / gaps.length;

@@ -5,6 +5,7 @@ import { solveTsp } from '../../../src/lib/solver/tsp';
 import { checkSolution } from '../../../src/lib/solver/checker';
 import { checkTour, parseTsplib, tsplibMatrix } from '../../../bench/lib/tsplib';
 import { checkSolomon, parseSolomon, solomonProblem } from '../../../bench/lib/solomon';
+import { judgeFarrierDay } from '../../../bench/lib/suite';
 
 const fixtures = join(process.cwd(), 'tests', 'fixtures', 'solver');
 
@@ -34,5 +35,24 @@ describe('published instances', () => {
     expect(check.distance).toBeGreaterThanOrEqual(828.93);
     // the engine's own checker agrees on its scaled-integer version of the instance
     expect(checkSolution(p, r, { complete: true, compareTimes: true }).violations).toEqual([]);
+  });
+});
+
+describe('farrier-day benchmark verdict', () => {
+  // a mandatory job left out is listed, not priced, so a plan that leaves one out can cost less
+  // than one that plans it; the verdict must go by the mandatory jobs first
+  it('counts a short run that plans more mandatory jobs as the better plan, whatever its cost', () => {
+    const v = judgeFarrierDay({ gapPct: 2.3, extraMandatoryOut: -1 }, '3-s', '60-s');
+    expect(v).toMatchObject({ within: true, worse: false });
+    expect(v.text).toContain('plans 1 more mandatory job(s)');
+  });
+  it('counts a short run that leaves more mandatory jobs out as a miss, whatever its cost', () => {
+    const v = judgeFarrierDay({ gapPct: -4, extraMandatoryOut: 1 }, '3-s', '60-s');
+    expect(v).toMatchObject({ within: false, worse: true });
+    expect(v.text).toContain('leaves 1 more mandatory job(s) out');
+  });
+  it('judges runs that leave the same mandatory jobs out by the 1 % cost gap', () => {
+    expect(judgeFarrierDay({ gapPct: 0.99, extraMandatoryOut: 0 }, '3-s', '60-s')).toMatchObject({ within: true, worse: false });
+    expect(judgeFarrierDay({ gapPct: 1.01, extraMandatoryOut: 0 }, '3-s', '60-s')).toMatchObject({ within: false, worse: false });
   });
 });
