@@ -132,19 +132,29 @@ export class State {
   }
 
   recomputeCost(): number {
-    let c = 0;
-    for (const e of this.evals) c += e.cost;
-    for (const j of this.unassigned) c += this.m.leaveOutCost[j];
-    this.cost = c;
-    return c;
+    this.cost = this.priceUnder(this.m);
+    return this.cost;
   }
 
   /** This plan's cost under `m`, a model of the same day that may price leaving jobs out differently. */
   costUnder(m: Model): number {
-    if (m === this.m) return this.cost;
-    let c = this.cost;
-    for (const j of this.unassigned) c += m.leaveOutCost[j] - this.m.leaveOutCost[j];
-    return c;
+    return m === this.m ? this.cost : this.priceUnder(m);
+  }
+
+  /**
+   * Routes plus leave-out costs under `m`. The mandatory jobs left out (1e13 each, whole numbers, so
+   * summed exactly) are added last, to the rest summed on its own: added among the other terms, the
+   * order in which jobs went out moved the total by a few thousandths of a cent at that size, and two
+   * equal plans could then differ, which made nearly every accepted step on such a day a "new best".
+   */
+  private priceUnder(m: Model): number {
+    let c = 0, mandatoryOut = 0;
+    for (const e of this.evals) c += e.cost;
+    for (const j of this.unassigned) {
+      if (m.mandatory[j]) mandatoryOut += m.leaveOutCost[j];
+      else c += m.leaveOutCost[j];
+    }
+    return c + mandatoryOut;
   }
 
   usedRoutes(): number {
